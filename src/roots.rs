@@ -1,0 +1,166 @@
+//! One-dimensional root finding: a bracketed Brent solver.
+//!
+//! Brent, R. P., *Algorithms for Minimization without Derivatives*,
+//! Prentice-Hall (1973), ch. 4 (the `zero` procedure). The method keeps a
+//! bracket `[a, b]` with `f(a)·f(b) ≤ 0` at every step and falls back to
+//! bisection whenever inverse-quadratic or secant steps misbehave, so it
+//! always converges for a continuous function on a valid bracket.
+//! No heap allocation.
+
+use crate::precision::{BRENT_MAX_EVALUATIONS, ROOT_ABS_TOL, ROOT_REL_TOL};
+
+/// Why a root search failed.
+#[derive(Debug, Clone, Copy, PartialEq, thiserror::Error)]
+pub enum RootError {
+    /// `f(a)` and `f(b)` have the same sign, so the interval holds no
+    /// guaranteed root.
+    #[error("no sign change on [{a}, {b}]: f(a) = {fa}, f(b) = {fb}")]
+    NotBracketed { a: f64, b: f64, fa: f64, fb: f64 },
+    /// The function returned NaN or an infinity.
+    #[error("function value is not finite at x = {x}")]
+    NotFinite { x: f64 },
+    /// The evaluation budget ran out before the tolerance was met.
+    #[error("no convergence after {evaluations} evaluations")]
+    NoConvergence { evaluations: usize },
+}
+
+/// A converged root and how much work it took.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Root {
+    /// The abscissa of the root.
+    pub x: f64,
+    /// The function value there.
+    pub fx: f64,
+    /// Function evaluations spent.
+    pub evaluations: usize,
+}
+
+/// Find a root of `f` in `[a, b]` with Brent's method, to the crate's
+/// precision policy (`ROOT_REL_TOL`·|x| + `ROOT_ABS_TOL`).
+pub fn brent<F: FnMut(f64) -> f64>(f: F, a: f64, b: f64) -> Result<Root, RootError> {
+    brent_with(f, a, b, ROOT_REL_TOL, ROOT_ABS_TOL, BRENT_MAX_EVALUATIONS)
+}
+
+/// Brent's method with explicit tolerances and evaluation budget.
+pub fn brent_with<F: FnMut(f64) -> f64>(
+    mut f: F,
+    a0: f64,
+    b0: f64,
+    rel_tol: f64,
+    abs_tol: f64,
+    max_evaluations: usize,
+) -> Result<Root, RootError> {
+    let (mut a, mut b) = (a0, b0);
+    let mut fa = f(a);
+    let mut fb = f(b);
+    let mut evaluations = 2;
+    if !fa.is_finite() {
+        return Err(RootError::NotFinite { x: a });
+    }
+    if !fb.is_finite() {
+        return Err(RootError::NotFinite { x: b });
+    }
+    if fa == 0.0 {
+        return Ok(Root { x: a, fx: fa, evaluations });
+    }
+    if fb == 0.0 {
+        return Ok(Root { x: b, fx: fb, evaluations });
+    }
+    if fa.signum() == fb.signum() {
+        return Err(RootError::NotBracketed { a, b, fa, fb });
+    }
+    // Invariant: the root lies between b and c; b is the best estimate.
+    let (mut c, mut fc) = (a, fa);
+    let mut d = b - a;
+    let mut e = d;
+    loop {
+        if fb.signum() == fc.signum() {
+            c = a;
+            fc = fa;
+            d = b - a;
+            e = d;
+        }
+        if fc.abs() < fb.abs() {
+            a = b;
+            b = c;
+            c = a;
+            fa = fb;
+            fb = fc;
+            fc = fa;
+        }
+        let tol = 2.0 * f64::EPSILON * b.abs() + 0.5 * (rel_tol * b.abs() + abs_tol);
+        let m = 0.5 * (c - b);
+        if m.abs() <= tol || fb == 0.0 {
+            return Ok(Root { x: b, fx: fb, evaluations });
+        }
+        if evaluations >= max_evaluations {
+            return Err(RootError::NoConvergence { evaluations });
+        }
+        if e.abs() < tol || fa.abs() <= fb.abs() {
+            d = m;
+            e = m;
+        } else {
+            let s = fb / fa;
+            let (mut p, mut q);
+            if a == c {
+                // Secant step.
+                p = 2.0 * m * s;
+                q = 1.0 - s;
+            } else {
+                // Inverse quadratic interpolation.
+                let qq = fa / fc;
+                let r = fb / fc;
+                p = s * (2.0 * m * qq * (qq - r) - (b - a) * (r - 1.0));
+                q = (qq - 1.0) * (r - 1.0) * (s - 1.0);
+            }
+            if p > 0.0 {
+                q = -q;
+            } else {
+                p = -p;
+            }
+            if 2.0 * p < (3.0 * m * q - (tol * q).abs()).min((e * q).abs()) {
+                e = d;
+                d = p / q;
+            } else {
+                d = m;
+                e = m;
+            }
+        }
+        a = b;
+        fa = fb;
+        b += if d.abs() > tol { d } else { tol.copysign(m) };
+        fb = f(b);
+        evaluations += 1;
+        if !fb.is_finite() {
+            return Err(RootError::NotFinite { x: b });
+        }
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn finds_sqrt_two() {
+        // Reference: sqrt(2) = 1.41421356237309504880… (any table of constants).
+        let r = brent(|x| x * x - 2.0, 0.0, 2.0).unwrap();
+        assert!((r.x - std::f64::consts::SQRT_2).abs() < 1e-12);
+    }
+
+    #[test]
+    fn finds_cosine_fixed_point() {
+        // Reference: the Dottie number 0.7390851332151607 (root of cos x = x).
+        let r = brent(|x| x.cos() - x, 0.0, 1.0).unwrap();
+        assert!((r.x - 0.739_085_133_215_160_7).abs() < 1e-12);
+        assert!(r.evaluations < 20);
+    }
+
+    #[test]
+    fn rejects_unbracketed_interval() {
+        assert!(matches!(
+            brent(|x| x * x + 1.0, -1.0, 1.0),
+            Err(RootError::NotBracketed { .. })
+        ));
+    }
+}
