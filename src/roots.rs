@@ -61,10 +61,18 @@ pub fn brent_with<F: FnMut(f64) -> f64>(
         return Err(RootError::NotFinite { x: b });
     }
     if fa == 0.0 {
-        return Ok(Root { x: a, fx: fa, evaluations });
+        return Ok(Root {
+            x: a,
+            fx: fa,
+            evaluations,
+        });
     }
     if fb == 0.0 {
-        return Ok(Root { x: b, fx: fb, evaluations });
+        return Ok(Root {
+            x: b,
+            fx: fb,
+            evaluations,
+        });
     }
     if fa.signum() == fb.signum() {
         return Err(RootError::NotBracketed { a, b, fa, fb });
@@ -91,7 +99,11 @@ pub fn brent_with<F: FnMut(f64) -> f64>(
         let tol = 2.0 * f64::EPSILON * b.abs() + 0.5 * (rel_tol * b.abs() + abs_tol);
         let m = 0.5 * (c - b);
         if m.abs() <= tol || fb == 0.0 {
-            return Ok(Root { x: b, fx: fb, evaluations });
+            return Ok(Root {
+                x: b,
+                fx: fb,
+                evaluations,
+            });
         }
         if evaluations >= max_evaluations {
             return Err(RootError::NoConvergence { evaluations });

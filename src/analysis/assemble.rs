@@ -1,0 +1,381 @@
+//! Turning a sized core into the report: rows, values, checks, cautions.
+
+use super::size::SizedCore;
+use crate::circuit::frontend::Arrangement;
+use crate::design::model::{Design, DriveSpec, HysteresisSpec, Load, StageKind};
+use crate::drive::Drive;
+use crate::eseries::format_rkm;
+use crate::precision::ENERGY_BALANCE_REL_TOL;
+use crate::quantity::format_engineering;
+use crate::report::{Check, OperatingPointRow, TripSummary, ValueRow};
+use crate::solve::{airflow_for_sense, OperatingPoint};
+
+/// Celsius from kelvin (ITS-90: t/°C = T/K − 273.15).
+pub fn to_c(t_k: f64) -> f64 {
+    t_k - 273.15
+}
+
+/// A report row from a solved point.
+pub fn row(label: &str, p: &OperatingPoint) -> OperatingPointRow {
+    OperatingPointRow {
+        label: label.to_string(),
+        airflow_m_per_s: p.airflow_m_per_s,
+        ambient_c: to_c(p.ambient_k),
+        element_temperature_c: to_c(p.temperature_k),
+        element_resistance_ohm: p.resistance_ohm,
+        element_current_a: p.current_a,
+        element_power_w: p.power_w,
+        sense_voltage_v: p.sense_v,
+        overheat_ratio: p.overheat_ratio(),
+        time_constant_s: p.time_constant_s,
+    }
+}
+
+/// Human name of an input arrangement's signals: (non-inverting, inverting).
+pub fn input_names(a: Arrangement, has_input_resistor: bool) -> (String, String) {
+    match a {
+        Arrangement::ReferenceOnNonInverting => (
+            "reference (trimmer wiper)".into(),
+            "sense node (element)".into(),
+        ),
+        Arrangement::SenseOnNonInverting => (
+            if has_input_resistor {
+                "sense node (element) through the series input resistor".into()
+            } else {
+                "sense node (element)".into()
+            },
+            "reference (trimmer wiper)".into(),
+        ),
+    }
+}
+
+/// The trip summary.
+pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
+    let fe = &core.front;
+    let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
+    let u_t = design.detector.trip_airflow_m_per_s;
+    let at = |x: f64| {
+        let level = fe.switching_sense_v(x, core.idle_state, src);
+        airflow_for_sense(&core.element, &core.drive, &core.env, level, u_t).ok()
+    };
+    let x = core.trimmer_x;
+    let step = 0.01;
+    let per_percent = match (
+        at((x - step).clamp(0.0, 1.0)),
+        at((x + step).clamp(0.0, 1.0)),
+    ) {
+        (Some(a), Some(b)) => {
+            ((b - a) / (((x + step).clamp(0.0, 1.0) - (x - step).clamp(0.0, 1.0)) * 100.0)).abs()
+        }
+        _ => 0.0,
+    };
+    let (plus, minus) = input_names(
+        fe.arrangement,
+        fe.input_ohm > 0.0 && fe.feedback_ohm.is_some(),
+    );
+    let hysteresis_note = if fe.feedback_ohm.is_some() {
+        core.notes.first().cloned().unwrap_or_default()
+    } else {
+        "no hysteresis network: the output may chatter while the airflow hovers at the trip point"
+            .into()
+    };
+    let sens = core.sensitivity_v_per_m_per_s;
+    TripSummary {
+        direction: design.detector.trip_on.name().into(),
+        target_airflow_m_per_s: u_t,
+        airflow_m_per_s: core.trip_airflow_m_per_s,
+        release_airflow_m_per_s: core.release_airflow_m_per_s,
+        reference_voltage_v: fe.divider.thevenin(fe.reference_rail_v, x).0,
+        sense_voltage_v: core.at_trip.sense_v,
+        sensitivity_v_per_m_per_s: sens,
+        trimmer_position_percent: 100.0 * x,
+        airflow_at_trimmer_bottom_m_per_s: at(0.0),
+        airflow_at_trimmer_top_m_per_s: at(1.0),
+        airflow_per_percent_travel_m_per_s: per_percent,
+        offset_uncertainty_m_per_s: if sens != 0.0 {
+            design.comparator.offset_v / sens.abs()
+        } else {
+            f64::MAX
+        },
+        non_inverting_input: plus,
+        inverting_input: minus,
+        hysteresis_note,
+    }
+}
+
+/// A resistor line of the bill.
+pub fn resistor(
+    designator: &str,
+    value: f64,
+    exact: Option<f64>,
+    series: &str,
+    reason: String,
+) -> ValueRow {
+    ValueRow {
+        designator: designator.into(),
+        part: "fixed resistor".into(),
+        value_ohm: Some(value),
+        exact,
+        e_series: series.into(),
+        text: format_rkm(value),
+        reason,
+        ..ValueRow::default()
+    }
+}
+
+/// The core values: drive, divider, trimmer, feedback, input resistor, pull-up.
+pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
+    let es = design.e_series.name();
+    let mut v = Vec::new();
+    match (core.drive, design.drive) {
+        (Drive::SeriesResistor { series_ohm, rail_v }, DriveSpec::SeriesResistor { rail, .. }) => v
+            .push(resistor(
+                "RS1",
+                series_ohm,
+                core.drive_exact,
+                if core.drive_exact.is_some() {
+                    es
+                } else {
+                    "given"
+                },
+                format!(
+                    "element series resistor from the {} rail ({rail_v:.2} V); sets the overheat",
+                    rail.name()
+                ),
+            )),
+        (Drive::ConstantCurrent { current_a }, _) => v.push(ValueRow {
+            designator: "IS1".into(),
+            part: "constant-current source".into(),
+            value_a: Some(current_a),
+            exact: core.drive_exact,
+            e_series: if core.drive_exact.is_some() {
+                "3 significant figures".into()
+            } else {
+                "given".into()
+            },
+            text: format_engineering(current_a, "A", 3),
+            rating: "compliance at least the element's hot voltage".into(),
+            reason: "element drive current; sets the overheat".into(),
+            ..ValueRow::default()
+        }),
+        _ => {}
+    }
+    let d = core.front.divider;
+    let (et, ep, eb) = match core.divider_exact {
+        Some((t, p, b)) => (Some(t), Some(p), Some(b)),
+        None => (None, None, None),
+    };
+    let src = |given: bool| {
+        if given {
+            "given".to_string()
+        } else {
+            es.to_string()
+        }
+    };
+    let det = &design.detector;
+    use crate::design::model::Sizable::Fixed;
+    v.push(resistor(
+        "RR1",
+        d.top_ohm,
+        et.filter(|_| !matches!(det.top_ohm, Fixed(_))),
+        &src(matches!(det.top_ohm, Fixed(_))),
+        "reference divider, top (rail side)".into(),
+    ));
+    v.push(ValueRow {
+        designator: "RV1".into(),
+        part: "trimmer".into(),
+        value_ohm: Some(d.trimmer_ohm),
+        exact: ep.filter(|_| !matches!(det.trimmer_ohm, Fixed(_))),
+        e_series: if matches!(det.trimmer_ohm, Fixed(_)) {
+            "given".into()
+        } else {
+            "1-2-5 trimmer values".into()
+        },
+        text: format_rkm(d.trimmer_ohm),
+        reason: format!(
+            "sets the trip point; set to {:.0} % of travel from the grounded end",
+            100.0 * core.trimmer_x
+        ),
+        ..ValueRow::default()
+    });
+    v.push(resistor(
+        "RR2",
+        d.bottom_ohm,
+        eb.filter(|_| !matches!(det.bottom_ohm, Fixed(_))),
+        &src(matches!(det.bottom_ohm, Fixed(_))),
+        "reference divider, bottom (ground side)".into(),
+    ));
+    if let Some(rf) = core.front.feedback_ohm {
+        v.push(resistor(
+            "RF1",
+            rf,
+            core.feedback_exact,
+            &src(core.feedback_exact.is_none()),
+            match det.hysteresis {
+                HysteresisSpec::Airflow(u) => {
+                    format!("positive feedback for {u} m/s of hysteresis")
+                }
+                HysteresisSpec::Volts(x) => format!(
+                    "positive feedback for {} of hysteresis",
+                    format_engineering(x, "V", 3)
+                ),
+                HysteresisSpec::None => "positive feedback (given)".into(),
+            },
+        ));
+        if core.front.arrangement == Arrangement::SenseOnNonInverting && core.front.input_ohm > 0.0
+        {
+            v.push(resistor(
+                "RI1",
+                core.front.input_ohm,
+                None,
+                &src(matches!(det.input_resistor_ohm, Fixed(_))),
+                "series input resistor: gives the stiff sense node a source resistance the feedback can work against".into(),
+            ));
+        }
+    }
+    let needs_pullup = core.front.feedback_ohm.is_some() || core.stage != StageKind::Direct;
+    if needs_pullup {
+        v.push(resistor(
+            "RP1",
+            core.pullup_ohm,
+            None,
+            &src(matches!(design.comparator.pullup_ohm, Fixed(_))),
+            "comparator output pull-up".into(),
+        ));
+    }
+    v
+}
+
+/// Core checks: energy balance, uniqueness, element limit, trimmer.
+pub fn core_checks(design: &Design, core: &SizedCore) -> Vec<Check> {
+    let mut c = Vec::new();
+    let worst = core
+        .table
+        .iter()
+        .map(|(_, p)| p.balance_residual())
+        .fold(0.0, f64::max);
+    c.push(Check {
+        name: "energy balance closes".into(),
+        passed: worst <= ENERGY_BALANCE_REL_TOL,
+        detail: format!(
+            "largest relative residual {worst:.1e} (limit {ENERGY_BALANCE_REL_TOL:.0e})"
+        ),
+    });
+    let bistable: Vec<String> = core
+        .table
+        .iter()
+        .filter(|(_, p)| p.roots.found() > 1)
+        .map(|(l, p)| {
+            let temps: Vec<String> = p
+                .roots
+                .iter()
+                .map(|(t, s)| format!("{:.1} °C{}", t - 273.15, if s { "" } else { " (unstable)" }))
+                .collect();
+            format!("{l}: {}", temps.join(", "))
+        })
+        .collect();
+    c.push(Check {
+        name: "single operating point".into(),
+        passed: bistable.is_empty(),
+        detail: if bistable.is_empty() {
+            "one steady temperature at every airflow in the table".into()
+        } else {
+            format!(
+                "more than one steady temperature — the element can jump between them ({}); add series resistance, use current drive or ask for less overheat",
+                bistable.join("; ")
+            )
+        },
+    });
+    if let Some(t_max) = core.element.max_temperature_k() {
+        let t = core.still_air.temperature_k;
+        c.push(Check {
+            name: "element temperature within its limit".into(),
+            passed: t <= t_max,
+            detail: format!(
+                "{:.1} °C in still air against a limit of {:.1} °C (margin {:.1} K)",
+                t - 273.15,
+                t_max - 273.15,
+                t_max - t
+            ),
+        });
+    }
+    let x = core.trimmer_x;
+    let reach = (0.0..=1.0).contains(&x);
+    c.push(Check {
+        name: "trimmer reaches the target".into(),
+        passed: reach,
+        detail: if reach {
+            format!("target at {:.1} % of travel", 100.0 * x)
+        } else {
+            format!("target needs {:.1} % of travel, outside 0–100 %: change the fixed divider resistors", 100.0 * x)
+        },
+    });
+    c.push(Check {
+        name: "trimmer near mid-travel".into(),
+        passed: (0.25..=0.75).contains(&x),
+        detail: format!("{:.1} % of travel (wanted 25–75 %)", 100.0 * x),
+    });
+    let (k_lo, k_hi) = core.needed_ratio;
+    let d = core.front.divider;
+    let (k0, k1) = (d.ratio_at(0.0), d.ratio_at(1.0));
+    c.push(Check {
+        name: "trimmer covers tolerances and ambient range".into(),
+        passed: k0 <= k_lo && k1 >= k_hi,
+        detail: format!(
+            "wiper reaches {:.2}–{:.2} % of the rail; the tolerance and ambient corners need {:.2}–{:.2} %",
+            100.0 * k0,
+            100.0 * k1,
+            100.0 * k_lo,
+            100.0 * k_hi
+        ),
+    });
+    let u_t = design.detector.trip_airflow_m_per_s;
+    let err = (core.trip_airflow_m_per_s - u_t).abs();
+    c.push(Check {
+        name: "trip point on target".into(),
+        passed: err <= 1e-6 * u_t.max(1.0) && reach,
+        detail: format!(
+            "{:.4} m/s at the reported trimmer setting, target {u_t} m/s",
+            core.trip_airflow_m_per_s
+        ),
+    });
+    c
+}
+
+/// The cautions that apply, in words; each defers to local codes.
+pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
+    let mut v = Vec::new();
+    let t_c = to_c(core.still_air.temperature_k);
+    // Contact-burn threshold: ISO 13732-1 gives about 51 °C for 1 min contact
+    // with bare metal (memory); draftwire warns from 50 °C.
+    if t_c >= 50.0 {
+        v.push(format!(
+            "Hot surface: the element runs at about {t_c:.0} °C in still air. Do not touch it while powered; mount it where fingers and loose material cannot reach it."
+        ));
+    }
+    if t_c >= 300.0 {
+        v.push(
+            "A bare metal filament (tungsten above all) oxidises quickly in air above a few hundred °C and is fragile: run it cooler or keep it sealed, and expect drift and failure."
+                .into(),
+        );
+    }
+    v.push(
+        "A heated element is an ignition source: never use this detector near flammable gas, vapour or dust.".into(),
+    );
+    if let Some(out) = &design.output {
+        if let Load::Relay {
+            switches_mains: true,
+            contact_rating,
+            ..
+        } = &out.load
+        {
+            v.push(format!(
+                "The relay switches mains: use it only within its contact rating ({}), with creepage and clearance for mains, in an enclosure, wired by a person qualified under local codes.",
+                contact_rating.as_deref().unwrap_or("not given in the design file — find it before wiring")
+            ));
+        }
+    }
+    v.push("Not a medical or life-safety device: breath, sleep or patient monitoring needs certified equipment.".into());
+    v.push("These figures are design estimates: follow local codes and licensed practice, and verify the build on the bench.".into());
+    v
+}

@@ -1,0 +1,597 @@
+//! `size`: from a validated design to the sized core of the circuit — the
+//! drive, the operating points, the reference divider and trimmer, the
+//! hysteresis network — and the trip point they give.
+
+use crate::circuit::divider::{Divider, DividerError, STANDARD_TRIMMER_OHM};
+use crate::circuit::frontend::{Arrangement, FrontEnd, OutputState};
+use crate::design::model::{
+    Design, DriveSpec, HysteresisSpec, Load, OverheatTarget, Rail, Sizable, StageKind,
+    TripDirection,
+};
+use crate::drive::Drive;
+use crate::element::{Element, Environment};
+use crate::eseries::{format_rkm, ESeries};
+use crate::roots::brent;
+use crate::solve::{
+    airflow_for_sense, operating_point, sensitivity_v_per_m_per_s, OperatingPoint, SolveError,
+};
+
+/// Divider current aimed at when the file does not give one: large against
+/// a comparator's input bias current (≥ 100×; common practice, no source)
+/// and small against the element's current.
+pub const DEFAULT_DIVIDER_CURRENT_A: f64 = 200e-6;
+
+/// Pull-up on the comparator output when the file leaves it open (common
+/// practice for open-collector outputs, no source).
+pub const DEFAULT_PULLUP_OHM: f64 = 10e3;
+
+/// Why a design could not be sized: each is a failure of the design, not of
+/// the input file.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum SizeError {
+    /// A solve failed.
+    #[error("{context}: {source}")]
+    Solve {
+        /// Where.
+        context: String,
+        /// Why.
+        source: SolveError,
+    },
+    /// The rail cannot push enough current for the wanted overheat.
+    #[error(
+        "the {rail} rail ({rail_v:.3} V) cannot drive the element to the wanted overheat: that needs {needed_v:.3} V \
+         across the element alone ({current_a:.4} A at {resistance_ohm:.3} ohm); use a higher rail or ask for less overheat"
+    )]
+    RailTooLow {
+        /// Rail name.
+        rail: &'static str,
+        /// Rail voltage.
+        rail_v: f64,
+        /// Voltage needed across the element.
+        needed_v: f64,
+        /// Current needed.
+        current_a: f64,
+        /// Element resistance at the wanted temperature.
+        resistance_ohm: f64,
+    },
+    /// The wanted overheat lies outside the element law's range.
+    #[error("the wanted overheat puts the element at {resistance_ohm:.4} ohm, which its resistance law never reaches")]
+    OverheatUnreachable {
+        /// Resistance asked for.
+        resistance_ohm: f64,
+    },
+    /// The reference divider cannot be sized.
+    #[error("reference divider: {0}")]
+    Divider(#[from] DividerError),
+    /// Hysteresis cannot be sized.
+    #[error("hysteresis: {0}")]
+    Hysteresis(String),
+}
+
+fn solve_ctx(context: &str) -> impl Fn(SolveError) -> SizeError + '_ {
+    move |source| SizeError::Solve {
+        context: context.to_string(),
+        source,
+    }
+}
+
+/// The sized core: everything later analyses and renderers need.
+#[derive(Debug, Clone)]
+pub struct SizedCore {
+    /// Air at nominal ambient.
+    pub env: Environment,
+    /// The element at nominal values.
+    pub element: Element,
+    /// The drive with its chosen values.
+    pub drive: Drive,
+    /// Exact drive value before snapping (ohm or A), when it was sized.
+    pub drive_exact: Option<f64>,
+    /// Operating point in still air at nominal ambient.
+    pub still_air: OperatingPoint,
+    /// Operating point at the target trip airflow.
+    pub at_trip: OperatingPoint,
+    /// Operating points for the table (0, ½, 1, 2 × trip).
+    pub table: Vec<(String, OperatingPoint)>,
+    /// Sensitivity dV/dU at the trip airflow, V per m/s.
+    pub sensitivity_v_per_m_per_s: f64,
+    /// The comparator front end as sized.
+    pub front: FrontEnd,
+    /// Exact ideal values before snapping: (top, trimmer, bottom) in ohm.
+    pub divider_exact: Option<(f64, f64, f64)>,
+    /// Exact feedback value before snapping.
+    pub feedback_exact: Option<f64>,
+    /// Comparator output pull-up, ohm.
+    pub pullup_ohm: f64,
+    /// Exact pull-up before snapping, when sized.
+    pub pullup_exact: Option<f64>,
+    /// Trimmer setting that puts the trip point on target (0 … 1, may lie
+    /// outside when the trimmer cannot reach).
+    pub trimmer_x: f64,
+    /// Output state when not tripped.
+    pub idle_state: OutputState,
+    /// The resolved output stage.
+    pub stage: StageKind,
+    /// Trip airflow with the chosen trimmer setting, m/s.
+    pub trip_airflow_m_per_s: f64,
+    /// Release airflow, m/s.
+    pub release_airflow_m_per_s: f64,
+    /// Lowest and highest wiper ratio the tolerance and ambient corners need.
+    pub needed_ratio: (f64, f64),
+    /// Notes for the report (why the feedback sits where it does, …).
+    pub notes: Vec<String>,
+}
+
+/// Build the drive at given rail voltage from the design's drive kind and
+/// its chosen value.
+pub fn drive_with(spec: &DriveSpec, value: f64, rail_v: f64) -> Drive {
+    match spec {
+        DriveSpec::SeriesResistor { .. } => Drive::SeriesResistor {
+            rail_v,
+            series_ohm: value,
+        },
+        DriveSpec::ConstantCurrent { .. } => Drive::ConstantCurrent { current_a: value },
+    }
+}
+
+/// The rail feeding the element, if any.
+pub fn element_rail(design: &Design) -> Option<Rail> {
+    match design.drive {
+        DriveSpec::SeriesResistor { rail, .. } => Some(rail),
+        DriveSpec::ConstantCurrent { .. } => None,
+    }
+}
+
+/// The drive's chosen value (ohm or A) as in the design, sized if `auto`.
+fn size_drive(design: &Design, env: &Environment) -> Result<(f64, Option<f64>), SizeError> {
+    let element = &design.element;
+    let law = element.resistance_law();
+    let target = |overheat: &OverheatTarget| -> Result<f64, SizeError> {
+        match *overheat {
+            OverheatTarget::Rise(rise) => Ok(env.ambient_k + rise),
+            OverheatTarget::Ratio(a) => {
+                let r = law.resistance_ohm(env.ambient_k) * (1.0 + a);
+                law.temperature_for_resistance(r)
+                    .ok_or(SizeError::OverheatUnreachable { resistance_ohm: r })
+            }
+        }
+    };
+    let needed = |t: f64| {
+        // Still-air heat loss at T fixes the power, hence the current: I = √(P/R).
+        let r = law.resistance_ohm(t);
+        let p = element.cooling_law().heat_loss_w(t, 0.0, env);
+        ((p / r).sqrt(), r)
+    };
+    match design.drive {
+        DriveSpec::SeriesResistor {
+            series_ohm: Sizable::Fixed(r),
+            ..
+        } => Ok((r, None)),
+        DriveSpec::ConstantCurrent {
+            current_a: Sizable::Fixed(i),
+        } => Ok((i, None)),
+        DriveSpec::SeriesResistor {
+            series_ohm: Sizable::Auto,
+            rail,
+        } => {
+            let t = target(
+                design
+                    .overheat
+                    .as_ref()
+                    .expect("validated: auto drive has an overheat"),
+            )?;
+            let (i, r) = needed(t);
+            let rail_v = design.supply.rail_v(rail);
+            let rs = rail_v / i - r;
+            if rs <= 0.0 {
+                return Err(SizeError::RailTooLow {
+                    rail: rail.name(),
+                    rail_v,
+                    needed_v: i * r,
+                    current_a: i,
+                    resistance_ohm: r,
+                });
+            }
+            Ok((design.e_series.nearest(rs), Some(rs)))
+        }
+        DriveSpec::ConstantCurrent {
+            current_a: Sizable::Auto,
+        } => {
+            let t = target(
+                design
+                    .overheat
+                    .as_ref()
+                    .expect("validated: auto drive has an overheat"),
+            )?;
+            let (i, _) = needed(t);
+            // A current source is set, not picked from a series: keep three
+            // significant figures.
+            let rounded = round_sig(i, 3);
+            Ok((rounded, Some(i)))
+        }
+    }
+}
+
+/// Round to `digits` significant figures.
+pub fn round_sig(x: f64, digits: usize) -> f64 {
+    if x == 0.0 || !x.is_finite() {
+        return x;
+    }
+    // Format then parse once, so the result is the decimal value exactly.
+    format!("{:.*e}", digits.saturating_sub(1), x)
+        .parse()
+        .unwrap_or(x)
+}
+
+/// The output stage actually used: `auto` picks the comparator output
+/// directly when the load current is within the sink limit, otherwise an
+/// NPN low-side switch.
+pub fn resolve_stage(design: &Design) -> StageKind {
+    let Some(out) = &design.output else {
+        return StageKind::Direct;
+    };
+    if out.stage != StageKind::Auto {
+        return out.stage;
+    }
+    let rail_v = design.supply.rail_v(out.rail);
+    let load_a = match out.load {
+        Load::Led { current_a, .. } => current_a,
+        Load::Buzzer { current_a } => current_a,
+        Load::Relay { coil_ohm, .. } => rail_v / coil_ohm,
+    };
+    if load_a <= design.comparator.sink_max_a && !matches!(out.load, Load::Relay { .. }) {
+        StageKind::Direct
+    } else {
+        StageKind::NpnLowSide
+    }
+}
+
+/// Output state that makes the load active: the comparator sinks (low) for
+/// a direct load or a PNP high-side switch; it releases (high) to turn on an
+/// NPN low-side switch.
+pub fn active_state(stage: StageKind) -> OutputState {
+    match stage {
+        StageKind::NpnLowSide => OutputState::High,
+        _ => OutputState::Low,
+    }
+}
+
+/// Which input gets which signal. Tripped means `σ·(V_sense − V_ref) > 0`,
+/// with σ the sign of dV/dU for a rising trip (its negative for a falling
+/// one). An open-collector comparator's output is low when V+ < V−.
+pub fn arrangement_for(
+    sensitivity: f64,
+    direction: TripDirection,
+    active: OutputState,
+) -> Arrangement {
+    let sigma = sensitivity.signum()
+        * if direction == TripDirection::Rising {
+            1.0
+        } else {
+            -1.0
+        };
+    // σ > 0: tripped when sense > ref. Output low when V+ < V−, so a low
+    // active level wants sense on V− and the reference on V+.
+    let sense_high_trips = sigma > 0.0;
+    let active_low = active == OutputState::Low;
+    if sense_high_trips == active_low {
+        Arrangement::ReferenceOnNonInverting
+    } else {
+        Arrangement::SenseOnNonInverting
+    }
+}
+
+fn row_label(k: f64) -> String {
+    if k == 0.0 {
+        "still air".into()
+    } else if k == 1.0 {
+        "trip".into()
+    } else {
+        format!("{k}×trip")
+    }
+}
+
+/// Wiper ratio needed for the trip sense level, across tolerance and ambient
+/// corners: every combination of ambient (min, nominal, max), element R0
+/// (±tol), drive (±tol) and rails (min, max; the same draw when the element
+/// and reference share a rail).
+fn needed_ratio_span(
+    design: &Design,
+    drive_value: f64,
+    env: &Environment,
+) -> Result<(f64, f64), SizeError> {
+    let u = design.detector.trip_airflow_m_per_s;
+    let ref_rail = design.detector.reference_rail;
+    let el_rail = element_rail(design);
+    let (rlo, rhi) = design.supply.rail_range_v(ref_rail);
+    let (elo, ehi) = match el_rail {
+        Some(r) => design.supply.rail_range_v(r),
+        None => (0.0, 0.0),
+    };
+    let shared = el_rail == Some(ref_rail);
+    let mut k_min = f64::INFINITY;
+    let mut k_max = f64::NEG_INFINITY;
+    let te = design.element_tolerance;
+    let td = design.drive_tolerance;
+    for ambient_k in [
+        design.ambient.min_k,
+        design.ambient.nominal_k,
+        design.ambient.max_k,
+    ] {
+        let env_c = Environment { ambient_k, ..*env };
+        for fe in [1.0 - te, 1.0 + te] {
+            let element = design
+                .element
+                .with_resistance_law(design.element.resistance_law().scaled(fe));
+            for fd in [1.0 - td, 1.0 + td] {
+                for (i, rv) in [rlo, rhi].into_iter().enumerate() {
+                    let evs: &[f64] = if shared {
+                        &[[elo, ehi][i]]
+                    } else {
+                        &[elo, ehi]
+                    };
+                    for &ev in evs {
+                        let drive = drive_with(&design.drive, drive_value * fd, ev);
+                        let p = operating_point(&element, &drive, &env_c, u)
+                            .map_err(solve_ctx("tolerance corner"))?;
+                        let k = p.sense_v / rv;
+                        k_min = k_min.min(k);
+                        k_max = k_max.max(k);
+                    }
+                }
+            }
+        }
+    }
+    Ok((k_min, k_max))
+}
+
+/// Size the core of the design.
+pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
+    let env = Environment {
+        ambient_k: design.ambient.nominal_k,
+        pressure_pa: design.ambient.pressure_pa,
+    };
+    let element = design.element.clone();
+    let (drive_value, drive_exact) = size_drive(design, &env)?;
+    let el_rail_v = element_rail(design).map_or(0.0, |r| design.supply.rail_v(r));
+    let drive = drive_with(&design.drive, drive_value, el_rail_v);
+    let u_t = design.detector.trip_airflow_m_per_s;
+
+    let mut table = Vec::new();
+    for k in [0.0, 0.5, 1.0, 2.0] {
+        let p = operating_point(&element, &drive, &env, k * u_t)
+            .map_err(solve_ctx("operating point"))?;
+        table.push((row_label(k), p));
+    }
+    let still_air = table[0].1;
+    let at_trip = table[2].1;
+    let sens = sensitivity_v_per_m_per_s(&element, &drive, &env, &at_trip);
+    let v_t = at_trip.sense_v;
+
+    let stage = resolve_stage(design);
+    let active = active_state(stage);
+    let idle_state = active.other();
+    let arrangement = arrangement_for(sens, design.detector.trip_on, active);
+
+    // Reference divider.
+    let ref_rail_v = design.supply.rail_v(design.detector.reference_rail);
+    let k_t = v_t / ref_rail_v;
+    let (k_lo, k_hi) = needed_ratio_span(design, drive_value, &env)?;
+    let current = design
+        .detector
+        .divider_current_a
+        .unwrap_or(DEFAULT_DIVIDER_CURRENT_A);
+    let det = &design.detector;
+    let (divider, divider_exact) = match (det.top_ohm, det.trimmer_ohm, det.bottom_ohm) {
+        (Sizable::Fixed(t), Sizable::Fixed(p), Sizable::Fixed(b)) => (
+            Divider {
+                top_ohm: t,
+                trimmer_ohm: p,
+                bottom_ohm: b,
+            },
+            None,
+        ),
+        (top, trim, bottom) => {
+            let d = Divider::size_with(
+                ref_rail_v,
+                k_t,
+                k_lo.min(k_t),
+                k_hi.max(k_t),
+                current,
+                design.e_series,
+                fixed(top),
+                fixed(trim),
+                fixed(bottom),
+            )?;
+            let total = ref_rail_v / current;
+            let exact_bottom = k_t * total - 0.5 * d.trimmer_ohm;
+            let exact_top = total - d.trimmer_ohm - exact_bottom;
+            (d, Some((exact_top, d.trimmer_ohm, exact_bottom)))
+        }
+    };
+
+    let node = super::output::output_node(design, stage);
+    let pullup_ohm = node.pullup_ohm;
+    let mut notes = Vec::new();
+    let sense_src = drive.sense_source_ohm(at_trip.resistance_ohm);
+    let input_ohm = match arrangement {
+        Arrangement::ReferenceOnNonInverting => 0.0,
+        Arrangement::SenseOnNonInverting => match det.input_resistor_ohm {
+            Sizable::Fixed(r) => r,
+            Sizable::Auto => {
+                // Keep the bias-current error I_b·R_in below half the input
+                // offset (draftwire's rule), within 1 kΩ … 100 kΩ.
+                let r = (0.5 * design.comparator.offset_v / design.comparator.bias_a.max(1e-12))
+                    .clamp(1e3, 100e3);
+                design.e_series.at_or_below(r)
+            }
+        },
+    };
+    let mut front = FrontEnd {
+        arrangement,
+        divider,
+        reference_rail_v: ref_rail_v,
+        feedback_ohm: None,
+        input_ohm,
+        output_high: node.high_source,
+        output_low_v: design.comparator.output_low_v,
+    };
+
+    // Hysteresis.
+    let mut feedback_exact = None;
+    let wanted = det.hysteresis;
+    match (wanted, det.feedback_ohm) {
+        (HysteresisSpec::None, Sizable::Fixed(rf)) | (_, Sizable::Fixed(rf)) => {
+            front.feedback_ohm = Some(rf);
+        }
+        (HysteresisSpec::None, Sizable::Auto) => {}
+        (want, Sizable::Auto) => {
+            let rf = size_feedback(
+                &element, &drive, &env, &front, idle_state, v_t, u_t, sense_src, want,
+            )?;
+            feedback_exact = Some(rf);
+            front.feedback_ohm = Some(design.e_series.nearest(rf));
+        }
+    }
+    if front.feedback_ohm.is_some() {
+        notes.push(match arrangement {
+            Arrangement::ReferenceOnNonInverting => format!(
+                "feedback goes into the reference node: its source resistance ({:.0} ohm at mid-travel) lets the output move it, while the sense node ({:.1} ohm) is too stiff to move",
+                divider.thevenin(ref_rail_v, 0.5).1, sense_src
+            ),
+            Arrangement::SenseOnNonInverting => format!(
+                "the sense node ({:.1} ohm) is too stiff for feedback, so it reaches the non-inverting input through a {} series resistor, and the feedback acts on that side",
+                sense_src, format_rkm(input_ohm)
+            ),
+        });
+    }
+
+    // Trimmer position that puts the trip point on target.
+    let x = trimmer_position(&front, idle_state, v_t, sense_src);
+    let trip_level = front.switching_sense_v(x, idle_state, sense_src);
+    let release_level = front.switching_sense_v(x, idle_state.other(), sense_src);
+    let trip_airflow = airflow_for_sense(&element, &drive, &env, trip_level, u_t)
+        .map_err(solve_ctx("trip airflow"))?;
+    let release_airflow = airflow_for_sense(&element, &drive, &env, release_level, u_t)
+        .map_err(solve_ctx("release airflow"))?;
+
+    Ok(SizedCore {
+        env,
+        element,
+        drive,
+        drive_exact,
+        still_air,
+        at_trip,
+        table,
+        sensitivity_v_per_m_per_s: sens,
+        front,
+        divider_exact,
+        feedback_exact,
+        pullup_ohm,
+        pullup_exact: node.pullup_exact,
+        trimmer_x: x,
+        idle_state,
+        stage,
+        trip_airflow_m_per_s: trip_airflow,
+        release_airflow_m_per_s: release_airflow,
+        needed_ratio: (k_lo, k_hi),
+        notes,
+    })
+}
+
+fn fixed(s: Sizable) -> Option<f64> {
+    match s {
+        Sizable::Fixed(v) => Some(v),
+        Sizable::Auto => None,
+    }
+}
+
+/// The trimmer position at which the comparator switches out of the idle
+/// state at sense level `v_t`; the switching level is affine in the wiper
+/// ratio, so one secant through the ends gives it (solved with Brent for
+/// robustness when the feedback loads the wiper).
+pub fn trimmer_position(front: &FrontEnd, idle: OutputState, v_t: f64, sense_src: f64) -> f64 {
+    let g = |x: f64| front.switching_sense_v(x, idle, sense_src) - v_t;
+    match brent(g, -1.0, 2.0) {
+        Ok(r) => r.x,
+        Err(_) => {
+            let (g0, g1) = (g(0.0), g(1.0));
+            -g0 / (g1 - g0)
+        }
+    }
+}
+
+/// Size the feedback resistor for the wanted band (airflow or volts):
+/// a Brent search on ln Rf, re-trimming to target at each trial so that the
+/// trip point stays on target while the release point moves.
+#[allow(clippy::too_many_arguments)]
+fn size_feedback(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    front: &FrontEnd,
+    idle: OutputState,
+    v_t: f64,
+    u_t: f64,
+    sense_src: f64,
+    want: HysteresisSpec,
+) -> Result<f64, SizeError> {
+    let band = |ln_rf: f64| -> Result<f64, SizeError> {
+        let fe = FrontEnd {
+            feedback_ohm: Some(ln_rf.exp()),
+            ..*front
+        };
+        let x = trimmer_position(&fe, idle, v_t, sense_src);
+        let release = fe.switching_sense_v(x, idle.other(), sense_src);
+        match want {
+            HysteresisSpec::Volts(_) => Ok((release - v_t).abs()),
+            _ => {
+                let u = airflow_for_sense(element, drive, env, release, u_t)
+                    .map_err(solve_ctx("hysteresis band"))?;
+                Ok((u - u_t).abs())
+            }
+        }
+    };
+    let target = match want {
+        HysteresisSpec::Volts(v) => v,
+        HysteresisSpec::Airflow(u) => u,
+        HysteresisSpec::None => return Err(SizeError::Hysteresis("no band wanted".into())),
+    };
+    let (lo, hi) = (100.0f64.ln(), 100e6f64.ln());
+    let b_lo = band(lo)?;
+    let b_hi = band(hi)?;
+    if target > b_lo {
+        return Err(SizeError::Hysteresis(format!(
+            "the widest band the output swing can give is {b_lo:.4} (with a 100 ohm feedback resistor); {target} was asked for"
+        )));
+    }
+    if target < b_hi {
+        return Ok(100e6);
+    }
+    let mut failure = None;
+    let r = brent(
+        |l| match band(l) {
+            Ok(b) => b - target,
+            Err(e) => {
+                failure.get_or_insert(e);
+                f64::NAN
+            }
+        },
+        lo,
+        hi,
+    );
+    if let Some(e) = failure {
+        return Err(e);
+    }
+    r.map(|r| r.x.exp())
+        .map_err(|e| SizeError::Hysteresis(e.to_string()))
+}
+
+/// Trimmer values available (for the docs and the report).
+pub fn trimmer_values() -> &'static [f64] {
+    &STANDARD_TRIMMER_OHM
+}
+
+/// Nearest value helper for other modules.
+pub fn snap(series: ESeries, x: f64) -> f64 {
+    series.nearest(x)
+}

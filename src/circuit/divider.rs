@@ -1,0 +1,173 @@
+//! The reference divider: fixed top resistor, trimmer, fixed bottom
+//! resistor between a rail and ground, wiper to the comparator.
+
+use crate::eseries::ESeries;
+
+/// A reference divider's values (ohm).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Divider {
+    /// Fixed resistor from the rail to the trimmer's top end.
+    pub top_ohm: f64,
+    /// Trimmer end-to-end resistance.
+    pub trimmer_ohm: f64,
+    /// Fixed resistor from the trimmer's bottom end to ground.
+    pub bottom_ohm: f64,
+}
+
+/// Why a divider could not be sized.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum DividerError {
+    /// The wanted wiper range reaches outside 0 … rail.
+    #[error(
+        "the reference must reach {low:.4}–{high:.4} of its rail; a divider between the rail and ground can only give 0–1"
+    )]
+    OutOfRail {
+        /// Lowest wanted ratio.
+        low: f64,
+        /// Highest wanted ratio.
+        high: f64,
+    },
+    /// No standard trimmer is large enough.
+    #[error("the wanted trimmer value {wanted_ohm:.0} ohm is above the largest standard trimmer")]
+    NoTrimmer {
+        /// Wanted value.
+        wanted_ohm: f64,
+    },
+}
+
+/// Trimmer values in the 1-2-5 sequence (common practice, no source), ohm.
+pub const STANDARD_TRIMMER_OHM: [f64; 13] = [
+    100.0, 200.0, 500.0, 1e3, 2e3, 5e3, 10e3, 20e3, 50e3, 100e3, 200e3, 500e3, 1e6,
+];
+
+/// Extra trimmer span beyond the computed need, to absorb the trimmer's own
+/// tolerance (typically ±20 % on end-to-end resistance; common practice,
+/// no source) and the fixed resistors' tolerance.
+pub const TRIMMER_SPAN_MARGIN: f64 = 1.3;
+
+impl Divider {
+    /// Total resistance, ohm.
+    pub fn total_ohm(&self) -> f64 {
+        self.top_ohm + self.trimmer_ohm + self.bottom_ohm
+    }
+
+    /// Unloaded wiper voltage as a fraction of the rail at trimmer position
+    /// `x` (0 = grounded end, 1 = top end): `(Rb + x·Rp)/(Rt + Rp + Rb)`
+    /// (voltage-divider rule).
+    pub fn ratio_at(&self, x: f64) -> f64 {
+        (self.bottom_ohm + x * self.trimmer_ohm) / self.total_ohm()
+    }
+
+    /// Thevenin equivalent of the wiper: `(V·ratio, (Rb + x·Rp) ∥ (Rt + (1 − x)·Rp))`
+    /// (Thevenin's theorem).
+    pub fn thevenin(&self, rail_v: f64, x: f64) -> (f64, f64) {
+        let lower = self.bottom_ohm + x * self.trimmer_ohm;
+        let upper = self.top_ohm + (1.0 - x) * self.trimmer_ohm;
+        (rail_v * self.ratio_at(x), lower * upper / (lower + upper))
+    }
+
+    /// Trimmer position giving wiper ratio `k` (may fall outside 0 … 1).
+    pub fn position_for_ratio(&self, k: f64) -> f64 {
+        (k * self.total_ohm() - self.bottom_ohm) / self.trimmer_ohm
+    }
+
+    /// Highest dissipation in any part of the divider at rail `rail_v`
+    /// (W): each fixed resistor and the trimmer's whole track.
+    pub fn dissipations_w(&self, rail_v: f64) -> (f64, f64, f64) {
+        let i = rail_v / self.total_ohm();
+        (
+            i * i * self.top_ohm,
+            i * i * self.trimmer_ohm,
+            i * i * self.bottom_ohm,
+        )
+    }
+
+    /// Size a divider on a rail so that the trimmer's mid-travel gives ratio
+    /// `k_mid` and its travel covers `[k_low, k_high]` with margin, drawing
+    /// about `current_a` from `rail_v`. Fixed values come from `series`;
+    /// among the neighbouring preferred values the pair that puts the
+    /// wanted ratio closest to mid-travel is chosen. Any of the three parts
+    /// may be fixed by the caller; then only the others are chosen, and when
+    /// no choice covers the span the closest is returned for the checks to
+    /// judge.
+    #[allow(clippy::too_many_arguments)]
+    pub fn size_with(
+        rail_v: f64,
+        k_mid: f64,
+        k_low: f64,
+        k_high: f64,
+        current_a: f64,
+        series: ESeries,
+        top: Option<f64>,
+        trimmer: Option<f64>,
+        bottom: Option<f64>,
+    ) -> Result<Divider, DividerError> {
+        let half = (k_mid - k_low).max(k_high - k_mid).max(0.01 * k_mid) * TRIMMER_SPAN_MARGIN;
+        let (lo, hi) = (k_mid - half, k_mid + half);
+        let any_fixed = top.is_some() || trimmer.is_some() || bottom.is_some();
+        if (lo <= 0.0 || hi >= 1.0) && !any_fixed {
+            return Err(DividerError::OutOfRail { low: lo, high: hi });
+        }
+        let total = rail_v / current_a;
+        let wanted_trimmer = 2.0 * half * total;
+        let trimmer = match trimmer {
+            Some(t) => t,
+            None => *STANDARD_TRIMMER_OHM
+                .iter()
+                .find(|&&t| t >= wanted_trimmer)
+                .ok_or(DividerError::NoTrimmer {
+                    wanted_ohm: wanted_trimmer,
+                })?,
+        };
+        // Keep the total near the wanted current; with a larger trimmer than
+        // needed, the fixed parts shrink accordingly.
+        let total = total.max(trimmer / (2.0 * half));
+        let bottom_ideal = (k_mid * total - 0.5 * trimmer).max(series.at_or_above(1.0));
+        let bottoms: Vec<f64> = match bottom {
+            Some(b) => vec![b],
+            None => neighbours(series, bottom_ideal).to_vec(),
+        };
+        let mut best_cover: Option<(f64, Divider)> = None;
+        let mut best_any: Option<(f64, Divider)> = None;
+        for &b in &bottoms {
+            let top_ideal = (b + 0.5 * trimmer) / k_mid - trimmer - b;
+            let tops: Vec<f64> = match top {
+                Some(t) => vec![t],
+                None if top_ideal > 0.0 => neighbours(series, top_ideal).to_vec(),
+                None => vec![series.at_or_above(1.0)],
+            };
+            for &t in &tops {
+                let d = Divider {
+                    top_ohm: t,
+                    trimmer_ohm: trimmer,
+                    bottom_ohm: b,
+                };
+                let score = (d.position_for_ratio(k_mid) - 0.5).abs();
+                let covers = d.ratio_at(0.0) <= k_low && d.ratio_at(1.0) >= k_high;
+                if covers && best_cover.is_none_or(|(s, _)| score < s) {
+                    best_cover = Some((score, d));
+                }
+                if best_any.is_none_or(|(s, _)| score < s) {
+                    best_any = Some((score, d));
+                }
+            }
+        }
+        match (best_cover, best_any) {
+            (Some((_, d)), _) => Ok(d),
+            (None, Some((_, d))) if any_fixed => Ok(d),
+            _ => Err(DividerError::OutOfRail { low: lo, high: hi }),
+        }
+    }
+}
+
+/// The preferred values around `x`: two below and two above.
+fn neighbours(series: ESeries, x: f64) -> [f64; 4] {
+    let below = series.at_or_below(x);
+    let above = series.at_or_above(x);
+    [
+        series.at_or_below(below * 0.999),
+        below,
+        above,
+        series.at_or_above(above * 1.001),
+    ]
+}

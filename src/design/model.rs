@@ -1,0 +1,1327 @@
+//! Stage two of reading a design file: the validated model. Its types hold
+//! only valid values, in SI units, with every default that was applied
+//! recorded in `assumptions` so the report can echo it.
+
+use super::diagnostic::{did_you_mean, Diagnostic};
+use super::raw::{self, Scalar, Value, Word};
+use crate::element::Element;
+use crate::eseries::ESeries;
+use crate::quantity::{parse_quantity, Dimension};
+
+/// A value the tool may size (`"auto"`) or one the file fixes.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum Sizable {
+    /// Let draftwire size it.
+    Auto,
+    /// Fixed by the design file (SI).
+    Fixed(f64),
+}
+
+/// A supply rail by name.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Rail {
+    /// The unregulated input.
+    Input,
+    /// The linear regulator's output.
+    Regulated,
+}
+
+impl Rail {
+    /// Name as written in the file.
+    pub fn name(self) -> &'static str {
+        match self {
+            Rail::Input => "input",
+            Rail::Regulated => "regulated",
+        }
+    }
+}
+
+/// Which way the airflow must move to trip the detector.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum TripDirection {
+    /// Trip when airflow rises past the trip point (draught detector).
+    Rising,
+    /// Trip when airflow falls below the trip point (loss-of-flow alarm).
+    Falling,
+}
+
+impl TripDirection {
+    /// Name as written in the file.
+    pub fn name(self) -> &'static str {
+        match self {
+            TripDirection::Rising => "rising",
+            TripDirection::Falling => "falling",
+        }
+    }
+}
+
+/// The wanted still-air overheat when the drive is sized.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum OverheatTarget {
+    /// Temperature rise over ambient, K.
+    Rise(f64),
+    /// Overheat ratio `(R_hot − R_amb)/R_amb`.
+    Ratio(f64),
+}
+
+/// The drive as designed.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum DriveSpec {
+    /// A rail through a series resistor.
+    SeriesResistor {
+        /// Which rail.
+        rail: Rail,
+        /// Series resistance, ohm, or auto.
+        series_ohm: Sizable,
+    },
+    /// A constant current.
+    ConstantCurrent {
+        /// Current, A, or auto.
+        current_a: Sizable,
+    },
+}
+
+/// Wanted hysteresis.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum HysteresisSpec {
+    /// No hysteresis network.
+    None,
+    /// A band in airflow, m/s.
+    Airflow(f64),
+    /// A band in volts at the sense node.
+    Volts(f64),
+}
+
+/// Ambient conditions.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Ambient {
+    /// Nominal ambient, K.
+    pub nominal_k: f64,
+    /// Lowest ambient in service, K.
+    pub min_k: f64,
+    /// Highest ambient in service, K.
+    pub max_k: f64,
+    /// Air pressure, Pa.
+    pub pressure_pa: f64,
+}
+
+/// A linear regulator as given (datasheet figures).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RegulatorSpec {
+    /// Output voltage, V.
+    pub output_v: f64,
+    /// Output tolerance (fraction).
+    pub tolerance: f64,
+    /// Dropout voltage, V.
+    pub dropout_v: f64,
+    /// Quiescent current, A.
+    pub quiescent_a: f64,
+    /// Junction–ambient thermal resistance, K/W.
+    pub theta_ja_k_per_w: f64,
+    /// Maximum junction temperature, K.
+    pub max_junction_k: f64,
+}
+
+/// The supply.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Supply {
+    /// Nominal input, V.
+    pub input_v: f64,
+    /// Lowest input, V.
+    pub input_min_v: f64,
+    /// Highest input, V.
+    pub input_max_v: f64,
+    /// Optional regulator.
+    pub regulator: Option<RegulatorSpec>,
+    /// Decoupling capacitance, F, or auto.
+    pub decoupling_f: Sizable,
+}
+
+impl Supply {
+    /// Nominal voltage of a rail.
+    pub fn rail_v(&self, rail: Rail) -> f64 {
+        match (rail, self.regulator) {
+            (Rail::Regulated, Some(r)) => r.output_v,
+            _ => self.input_v,
+        }
+    }
+    /// Lowest and highest voltage of a rail over the input range and the
+    /// regulator's tolerance.
+    pub fn rail_range_v(&self, rail: Rail) -> (f64, f64) {
+        match (rail, self.regulator) {
+            (Rail::Regulated, Some(r)) => (
+                r.output_v * (1.0 - r.tolerance),
+                r.output_v * (1.0 + r.tolerance),
+            ),
+            _ => (self.input_min_v, self.input_max_v),
+        }
+    }
+}
+
+/// The detector.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Detector {
+    /// Target trip airflow, m/s.
+    pub trip_airflow_m_per_s: f64,
+    /// Trip direction.
+    pub trip_on: TripDirection,
+    /// Rail of the reference divider.
+    pub reference_rail: Rail,
+    /// Fixed top resistor.
+    pub top_ohm: Sizable,
+    /// Trimmer end-to-end resistance.
+    pub trimmer_ohm: Sizable,
+    /// Fixed bottom resistor.
+    pub bottom_ohm: Sizable,
+    /// Trimmer position to analyse fixed values at (fraction of travel from
+    /// the bottom end); `None` means "find the position that hits target".
+    pub trimmer_position: Option<f64>,
+    /// Wanted divider current when sizing, A.
+    pub divider_current_a: Option<f64>,
+    /// Wanted hysteresis.
+    pub hysteresis: HysteresisSpec,
+    /// Feedback resistor.
+    pub feedback_ohm: Sizable,
+    /// Series input resistor.
+    pub input_resistor_ohm: Sizable,
+}
+
+/// Comparator figures (datasheet or typical).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ComparatorSpec {
+    /// Supply rail.
+    pub rail: Rail,
+    /// Input offset voltage (magnitude), V.
+    pub offset_v: f64,
+    /// Input bias current (magnitude), A.
+    pub bias_a: f64,
+    /// Lowest common-mode input above ground, V.
+    pub common_mode_low_v: f64,
+    /// Common-mode headroom below the positive rail, V.
+    pub common_mode_headroom_v: f64,
+    /// Output sink current limit, A.
+    pub sink_max_a: f64,
+    /// Output low voltage at the sink limit, V.
+    pub output_low_v: f64,
+    /// Supply range, V.
+    pub supply_min_v: f64,
+    /// Supply range, V.
+    pub supply_max_v: f64,
+    /// Supply current, A.
+    pub supply_current_a: f64,
+    /// Output pull-up resistor.
+    pub pullup_ohm: Sizable,
+}
+
+/// The output stage kind.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum StageKind {
+    /// Let draftwire pick the simplest that is within ratings.
+    Auto,
+    /// The comparator output drives the load directly.
+    Direct,
+    /// NPN low-side switch.
+    NpnLowSide,
+    /// PNP high-side switch.
+    PnpHighSide,
+}
+
+/// The load the output drives.
+#[derive(Debug, Clone, PartialEq)]
+pub enum Load {
+    /// An LED with forward voltage and wanted current.
+    Led {
+        /// Forward voltage, V.
+        forward_v: f64,
+        /// Wanted current, A.
+        current_a: f64,
+    },
+    /// A buzzer drawing a current at the rail voltage.
+    Buzzer {
+        /// Current, A.
+        current_a: f64,
+    },
+    /// A relay coil.
+    Relay {
+        /// Coil rated voltage, V.
+        coil_v: f64,
+        /// Coil resistance, ohm.
+        coil_ohm: f64,
+        /// Contact rating as written.
+        contact_rating: Option<String>,
+        /// Whether the contacts switch mains.
+        switches_mains: bool,
+    },
+}
+
+/// Transistor figures.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct TransistorSpec {
+    /// Vce max, V.
+    pub vce_max_v: f64,
+    /// Ic max, A.
+    pub ic_max_a: f64,
+    /// P max, W.
+    pub power_max_w: f64,
+    /// hFE min.
+    pub hfe_min: f64,
+    /// Vce(sat), V.
+    pub vce_sat_v: f64,
+    /// Vbe(on), V.
+    pub vbe_on_v: f64,
+}
+
+/// Diode figures.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct DiodeSpec {
+    /// Reverse voltage rating, V.
+    pub reverse_max_v: f64,
+    /// Forward current rating, A.
+    pub forward_max_a: f64,
+}
+
+/// The output stage as designed.
+#[derive(Debug, Clone, PartialEq)]
+pub struct OutputSpec {
+    /// Stage kind.
+    pub stage: StageKind,
+    /// Load.
+    pub load: Load,
+    /// Rail feeding the load.
+    pub rail: Rail,
+    /// Forced current gain.
+    pub forced_gain: f64,
+    /// Transistor figures.
+    pub transistor: TransistorSpec,
+    /// Flyback diode figures.
+    pub diode: DiodeSpec,
+}
+
+/// Derating policy.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RatingsSpec {
+    /// Fraction of a resistor's rated power it may dissipate.
+    pub resistor_derating: f64,
+    /// Trimmer rated power, W.
+    pub trimmer_power_w: f64,
+}
+
+/// A validated design.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Design {
+    /// Title.
+    pub title: String,
+    /// E-series for sized resistors.
+    pub e_series: ESeries,
+    /// Ambient.
+    pub ambient: Ambient,
+    /// Supply.
+    pub supply: Supply,
+    /// The element.
+    pub element: Element,
+    /// Element resistance tolerance (fraction).
+    pub element_tolerance: f64,
+    /// Drive.
+    pub drive: DriveSpec,
+    /// Drive tolerance (series resistor or current source), fraction.
+    pub drive_tolerance: f64,
+    /// Wanted overheat when the drive is sized.
+    pub overheat: Option<OverheatTarget>,
+    /// Detector.
+    pub detector: Detector,
+    /// Comparator.
+    pub comparator: ComparatorSpec,
+    /// Output stage, when the file has one.
+    pub output: Option<OutputSpec>,
+    /// Derating policy.
+    pub ratings: RatingsSpec,
+    /// Defaults that were applied, in words, for the report.
+    pub assumptions: Vec<String>,
+}
+
+/// Reads one design file's values, turning each into a diagnostic that
+/// points at it when it is wrong.
+pub(crate) struct Reader<'a> {
+    pub(crate) file: &'a str,
+    pub(crate) source: &'a str,
+    pub(crate) assumptions: Vec<String>,
+}
+
+pub(crate) type R<T> = Result<T, Box<Diagnostic>>;
+
+impl<'a> Reader<'a> {
+    pub(crate) fn err(
+        &self,
+        span: Option<std::ops::Range<usize>>,
+        field: &str,
+        message: String,
+    ) -> Box<Diagnostic> {
+        Box::new(Diagnostic::at(
+            self.file,
+            self.source,
+            span,
+            Some(field),
+            message,
+        ))
+    }
+
+    pub(crate) fn quantity(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
+        let text = match v.get_ref() {
+            Scalar::Text(t) => t.clone(),
+            Scalar::Number(n) => {
+                if dim == Dimension::Fraction {
+                    return Ok(*n);
+                }
+                return Err(self.err(
+                    Some(v.span()),
+                    field,
+                    format!(
+                        "missing unit: expected {} with its unit, such as {}, found the bare number {n}",
+                        dim.name(),
+                        dim.examples()
+                    ),
+                ));
+            }
+        };
+        parse_quantity(&text, dim).map_err(|e| self.err(Some(v.span()), field, e.to_string()))
+    }
+
+    pub(crate) fn positive(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
+        let x = self.quantity(v, field, dim)?;
+        if x > 0.0 {
+            Ok(x)
+        } else {
+            Err(self.err(
+                Some(v.span()),
+                field,
+                format!("expected {} above zero, found {x}", dim.name()),
+            ))
+        }
+    }
+
+    pub(crate) fn non_negative(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
+        let x = self.quantity(v, field, dim)?;
+        if x >= 0.0 {
+            Ok(x)
+        } else {
+            Err(self.err(
+                Some(v.span()),
+                field,
+                format!("expected {} of at least zero, found {x}", dim.name()),
+            ))
+        }
+    }
+
+    pub(crate) fn fraction_in(&self, v: &Value, field: &str, lo: f64, hi: f64) -> R<f64> {
+        let x = self.quantity(v, field, Dimension::Fraction)?;
+        if x >= lo && x <= hi {
+            Ok(x)
+        } else {
+            Err(self.err(
+                Some(v.span()),
+                field,
+                format!(
+                    "expected a fraction between {} % and {} %, found {} %",
+                    lo * 100.0,
+                    hi * 100.0,
+                    x * 100.0
+                ),
+            ))
+        }
+    }
+
+    pub(crate) fn opt<T>(
+        &mut self,
+        v: &Option<Value>,
+        f: impl FnOnce(&Self, &Value) -> R<T>,
+    ) -> R<Option<T>> {
+        match v {
+            Some(v) => f(self, v).map(Some),
+            None => Ok(None),
+        }
+    }
+
+    pub(crate) fn or_default<T>(
+        &mut self,
+        v: &Option<Value>,
+        default: T,
+        note: &str,
+        f: impl FnOnce(&Self, &Value) -> R<T>,
+    ) -> R<T> {
+        match v {
+            Some(v) => f(self, v),
+            None => {
+                self.assumptions.push(note.to_string());
+                Ok(default)
+            }
+        }
+    }
+
+    pub(crate) fn required<'v>(
+        &self,
+        v: &'v Option<Value>,
+        field: &str,
+        near: Option<std::ops::Range<usize>>,
+        what: &str,
+    ) -> R<&'v Value> {
+        v.as_ref()
+            .ok_or_else(|| self.err(near, field, format!("missing: {what}")))
+    }
+
+    pub(crate) fn sizable(&self, v: &Value, field: &str, dim: Dimension) -> R<Sizable> {
+        if let Scalar::Text(t) = v.get_ref() {
+            if t.trim().eq_ignore_ascii_case("auto") {
+                return Ok(Sizable::Auto);
+            }
+        }
+        self.positive(v, field, dim).map(Sizable::Fixed)
+    }
+
+    pub(crate) fn word<'w>(
+        &self,
+        w: &'w Word,
+        field: &str,
+        choices: &[&'static str],
+    ) -> R<&'static str> {
+        let text = w.get_ref().trim();
+        if let Some(c) = choices.iter().find(|c| c.eq_ignore_ascii_case(text)) {
+            return Ok(c);
+        }
+        let help =
+            did_you_mean(text, choices.iter().copied()).map(|c| format!("did you mean \"{c}\"?"));
+        Err(Box::new(
+            Diagnostic::at(
+                self.file,
+                self.source,
+                Some(w.span()),
+                Some(field),
+                format!("expected one of {}, found \"{text}\"", quote_list(choices)),
+            )
+            .with_help(help),
+        ))
+    }
+
+    pub(crate) fn rail(&self, w: &Word, field: &str, has_regulator: bool) -> R<Rail> {
+        let rail = match self.word(w, field, &["input", "regulated"])? {
+            "input" => Rail::Input,
+            _ => Rail::Regulated,
+        };
+        if rail == Rail::Regulated && !has_regulator {
+            return Err(self.err(
+                Some(w.span()),
+                field,
+                "the \"regulated\" rail needs a [supply.regulator] section, and there is none"
+                    .into(),
+            ));
+        }
+        Ok(rail)
+    }
+}
+
+fn quote_list(items: &[&str]) -> String {
+    items
+        .iter()
+        .map(|s| format!("\"{s}\""))
+        .collect::<Vec<_>>()
+        .join(", ")
+}
+
+/// Parse and validate a design file's text. `file` names it in messages.
+pub fn parse_design(file: &str, source: &str) -> Result<Design, Box<Diagnostic>> {
+    let raw: raw::RawDesign =
+        toml::from_str(source).map_err(|e| Box::new(toml_error(file, source, &e)))?;
+    let mut rd = Reader {
+        file,
+        source,
+        assumptions: Vec::new(),
+    };
+    build(&mut rd, &raw)
+}
+
+/// Turn a toml/serde error into a diagnostic, with a "did you mean" hint
+/// for unknown keys.
+fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagnostic {
+    let message = e.message().trim().to_string();
+    let mut help = None;
+    if let Some(rest) = message.strip_prefix("unknown field `") {
+        if let Some((unknown, tail)) = rest.split_once('`') {
+            let expected: Vec<&str> = tail.split('`').skip(1).step_by(2).collect();
+            help = did_you_mean(unknown, expected.iter().copied())
+                .map(|c| format!("did you mean `{c}`?"));
+        }
+    }
+    let message = if message.starts_with("missing field") {
+        format!("{message} (a required key is absent from this table)")
+    } else {
+        message
+    };
+    Diagnostic::at(file, source, e.span(), None, message).with_help(help)
+}
+
+fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
+    let title = raw
+        .design
+        .as_ref()
+        .and_then(|m| m.title.as_ref())
+        .map(|t| t.get_ref().clone())
+        .unwrap_or_else(|| "untitled design".to_string());
+    let e_series = match raw.design.as_ref().and_then(|m| m.e_series.as_ref()) {
+        Some(w) => ESeries::parse(w.get_ref().trim()).ok_or_else(|| {
+            Box::new(
+                Diagnostic::at(
+                    rd.file,
+                    rd.source,
+                    Some(w.span()),
+                    Some("design.e_series"),
+                    format!("expected one of \"E6\", \"E12\", \"E24\", \"E48\", \"E96\", \"E192\", found \"{}\"", w.get_ref()),
+                )
+                .with_help(None),
+            )
+        })?,
+        None => {
+            rd.assumptions.push("design.e_series not given: sized resistors use E24".into());
+            ESeries::E24
+        }
+    };
+
+    // Ambient.
+    let a = &raw.ambient;
+    let nominal_k = rd.quantity(&a.nominal, "ambient.nominal", Dimension::Temperature)?;
+    let min_k = rd.or_default(
+        &a.min,
+        nominal_k,
+        "ambient.min not given: taken as the nominal ambient",
+        |r, v| r.quantity(v, "ambient.min", Dimension::Temperature),
+    )?;
+    let max_k = rd.or_default(
+        &a.max,
+        nominal_k,
+        "ambient.max not given: taken as the nominal ambient",
+        |r, v| r.quantity(v, "ambient.max", Dimension::Temperature),
+    )?;
+    if !(min_k <= nominal_k && nominal_k <= max_k) {
+        return Err(rd.err(
+            a.min.as_ref().or(a.max.as_ref()).map(|v| v.span()),
+            "ambient",
+            format!(
+                "expected min ≤ nominal ≤ max, found {:.2} °C, {:.2} °C, {:.2} °C",
+                min_k - 273.15,
+                nominal_k - 273.15,
+                max_k - 273.15
+            ),
+        ));
+    }
+    let pressure_pa = match (&a.pressure, &a.altitude) {
+        (Some(p), None) => rd.positive(p, "ambient.pressure", Dimension::Pressure)?,
+        (None, Some(h)) => {
+            let h_m = rd.quantity(h, "ambient.altitude", Dimension::Length)?;
+            if !(-500.0..=11_000.0).contains(&h_m) {
+                return Err(rd.err(
+                    Some(h.span()),
+                    "ambient.altitude",
+                    format!("expected an altitude between -500 m and 11000 m (troposphere), found {h_m} m"),
+                ));
+            }
+            standard_atmosphere_pressure_pa(h_m)
+        }
+        (Some(_), Some(h)) => {
+            return Err(rd.err(
+                Some(h.span()),
+                "ambient.altitude",
+                "give either pressure or altitude, not both".into(),
+            ))
+        }
+        (None, None) => crate::element::STANDARD_PRESSURE_PA,
+    };
+    let ambient = Ambient {
+        nominal_k,
+        min_k,
+        max_k,
+        pressure_pa,
+    };
+
+    // Supply.
+    let s = &raw.supply;
+    let input_v = rd.positive(&s.input, "supply.input", Dimension::Voltage)?;
+    let input_min_v = rd.or_default(
+        &s.input_min,
+        input_v,
+        "supply.input_min not given: taken as the nominal input",
+        |r, v| r.positive(v, "supply.input_min", Dimension::Voltage),
+    )?;
+    let input_max_v = rd.or_default(
+        &s.input_max,
+        input_v,
+        "supply.input_max not given: taken as the nominal input",
+        |r, v| r.positive(v, "supply.input_max", Dimension::Voltage),
+    )?;
+    if !(input_min_v <= input_v && input_v <= input_max_v) {
+        return Err(rd.err(
+            Some(s.input.span()),
+            "supply",
+            format!("expected input_min ≤ input ≤ input_max, found {input_min_v} V, {input_v} V, {input_max_v} V"),
+        ));
+    }
+    let regulator = match &s.regulator {
+        None => None,
+        Some(g) => {
+            let output_v = rd.positive(&g.output, "supply.regulator.output", Dimension::Voltage)?;
+            let dropout_v = rd.non_negative(
+                rd.required(
+                    &g.dropout,
+                    "supply.regulator.dropout",
+                    Some(g.output.span()),
+                    "the regulator's dropout voltage, e.g. dropout = \"2 V\"",
+                )?,
+                "supply.regulator.dropout",
+                Dimension::Voltage,
+            )?;
+            let quiescent_a = rd.non_negative(
+                rd.required(
+                    &g.quiescent,
+                    "supply.regulator.quiescent",
+                    Some(g.output.span()),
+                    "the regulator's quiescent current, e.g. quiescent = \"5 mA\"",
+                )?,
+                "supply.regulator.quiescent",
+                Dimension::Current,
+            )?;
+            let tolerance = rd.or_default(&g.tolerance, 0.05, "supply.regulator.tolerance not given: ±5 % assumed (typical of fixed linear regulators)", |r, v| {
+                r.fraction_in(v, "supply.regulator.tolerance", 0.0, 0.5)
+            })?;
+            let theta_ja_k_per_w = rd.or_default(
+                &g.theta_ja,
+                65.0,
+                "supply.regulator.theta_ja not given: 65 K/W assumed (typical of a TO-220 package with no heat sink)",
+                |r, v| r.positive(v, "supply.regulator.theta_ja", Dimension::ThermalResistance),
+            )?;
+            let max_junction_k = rd.or_default(
+                &g.max_junction,
+                398.15,
+                "supply.regulator.max_junction not given: 125 °C assumed (typical)",
+                |r, v| r.quantity(v, "supply.regulator.max_junction", Dimension::Temperature),
+            )?;
+            Some(RegulatorSpec {
+                output_v,
+                tolerance,
+                dropout_v,
+                quiescent_a,
+                theta_ja_k_per_w,
+                max_junction_k,
+            })
+        }
+    };
+    let decoupling_f = match &s.decoupling {
+        Some(v) => rd.sizable(v, "supply.decoupling", Dimension::Capacitance)?,
+        None => Sizable::Auto,
+    };
+    let supply = Supply {
+        input_v,
+        input_min_v,
+        input_max_v,
+        regulator,
+        decoupling_f,
+    };
+    let has_reg = regulator.is_some();
+
+    // Element.
+    let (element, element_tolerance) = super::element::build_element(rd, &raw.element)?;
+
+    // Drive.
+    let d = &raw.drive;
+    let kind = rd.word(
+        &d.kind,
+        "drive.kind",
+        &["series-resistor", "constant-current"],
+    )?;
+    let drive = if kind == "series-resistor" {
+        let rail = match &d.rail {
+            Some(w) => rd.rail(w, "drive.rail", has_reg)?,
+            None => {
+                let r = if has_reg {
+                    Rail::Regulated
+                } else {
+                    Rail::Input
+                };
+                rd.assumptions.push(format!(
+                    "drive.rail not given: the element is fed from the {} rail",
+                    r.name()
+                ));
+                r
+            }
+        };
+        let series = rd.required(
+            &d.series,
+            "drive.series",
+            Some(d.kind.span()),
+            "the series resistor, e.g. series = \"47 ohm\" or series = \"auto\"",
+        )?;
+        if let Some(c) = &d.current {
+            return Err(rd.err(
+                Some(c.span()),
+                "drive.current",
+                "a series-resistor drive takes `series`, not `current`".into(),
+            ));
+        }
+        DriveSpec::SeriesResistor {
+            rail,
+            series_ohm: rd.sizable(series, "drive.series", Dimension::Resistance)?,
+        }
+    } else {
+        let current = rd.required(
+            &d.current,
+            "drive.current",
+            Some(d.kind.span()),
+            "the drive current, e.g. current = \"50 mA\" or current = \"auto\"",
+        )?;
+        if let Some(c) = &d.series {
+            return Err(rd.err(
+                Some(c.span()),
+                "drive.series",
+                "a constant-current drive takes `current`, not `series`".into(),
+            ));
+        }
+        if let Some(c) = &d.rail {
+            return Err(rd.err(
+                Some(c.span()),
+                "drive.rail",
+                "a constant-current drive takes no rail".into(),
+            ));
+        }
+        DriveSpec::ConstantCurrent {
+            current_a: rd.sizable(current, "drive.current", Dimension::Current)?,
+        }
+    };
+    let sized = matches!(
+        drive,
+        DriveSpec::SeriesResistor {
+            series_ohm: Sizable::Auto,
+            ..
+        } | DriveSpec::ConstantCurrent {
+            current_a: Sizable::Auto
+        }
+    );
+    let overheat = match (&d.overheat_rise, &d.overheat_ratio) {
+        (Some(v), None) => Some(OverheatTarget::Rise(rd.positive(
+            v,
+            "drive.overheat_rise",
+            Dimension::TemperatureDifference,
+        )?)),
+        (None, Some(v)) => {
+            let x = rd.quantity(v, "drive.overheat_ratio", Dimension::Fraction)?;
+            if !(x > 0.0 && x < 20.0) {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "drive.overheat_ratio",
+                    format!("expected a ratio above 0 and below 20, found {x}"),
+                ));
+            }
+            Some(OverheatTarget::Ratio(x))
+        }
+        (Some(_), Some(v)) => {
+            return Err(rd.err(
+                Some(v.span()),
+                "drive.overheat_ratio",
+                "give either overheat_rise or overheat_ratio, not both".into(),
+            ))
+        }
+        (None, None) => None,
+    };
+    if sized && overheat.is_none() {
+        return Err(rd.err(
+            Some(d.kind.span()),
+            "drive",
+            "the drive is \"auto\", so it needs a wanted still-air overheat: overheat_rise = \"80 K\" or overheat_ratio = 0.3".into(),
+        ));
+    }
+    if !sized {
+        if let Some(v) = d.overheat_rise.as_ref().or(d.overheat_ratio.as_ref()) {
+            return Err(rd.err(
+                Some(v.span()),
+                "drive",
+                "an overheat target is only used when the drive is \"auto\"".into(),
+            ));
+        }
+    }
+    let default_tol = match drive {
+        DriveSpec::SeriesResistor { .. } => e_series.tolerance(),
+        DriveSpec::ConstantCurrent { .. } => 0.0,
+    };
+    let drive_tolerance = rd.or_default(
+        &d.tolerance,
+        default_tol,
+        &format!(
+            "drive.tolerance not given: ±{} % assumed",
+            default_tol * 100.0
+        ),
+        |r, v| r.fraction_in(v, "drive.tolerance", 0.0, 0.5),
+    )?;
+
+    // Detector.
+    let t = &raw.detector;
+    let trip_airflow_m_per_s = rd.positive(
+        &t.trip_airflow,
+        "detector.trip_airflow",
+        Dimension::Velocity,
+    )?;
+    if trip_airflow_m_per_s > crate::solve::MAX_AIRFLOW_M_PER_S / 2.0 {
+        return Err(rd.err(
+            Some(t.trip_airflow.span()),
+            "detector.trip_airflow",
+            format!(
+                "expected at most {} m/s, found {trip_airflow_m_per_s} m/s",
+                crate::solve::MAX_AIRFLOW_M_PER_S / 2.0
+            ),
+        ));
+    }
+    let trip_on = match rd.word(&t.trip_on, "detector.trip_on", &["rising", "falling"])? {
+        "rising" => TripDirection::Rising,
+        _ => TripDirection::Falling,
+    };
+    let drive_rail = match drive {
+        DriveSpec::SeriesResistor { rail, .. } => rail,
+        DriveSpec::ConstantCurrent { .. } => {
+            if has_reg {
+                Rail::Regulated
+            } else {
+                Rail::Input
+            }
+        }
+    };
+    let reference_rail = match &t.reference_rail {
+        Some(w) => rd.rail(w, "detector.reference_rail", has_reg)?,
+        None => {
+            rd.assumptions.push(format!(
+                "detector.reference_rail not given: the divider hangs from the {} rail",
+                drive_rail.name()
+            ));
+            drive_rail
+        }
+    };
+    let sz = |rd: &Reader, v: &Option<Value>, f: &str| -> R<Sizable> {
+        match v {
+            Some(v) => rd.sizable(v, f, Dimension::Resistance),
+            None => Ok(Sizable::Auto),
+        }
+    };
+    let top_ohm = sz(rd, &t.top, "detector.top")?;
+    let trimmer_ohm = sz(rd, &t.trimmer, "detector.trimmer")?;
+    let bottom_ohm = sz(rd, &t.bottom, "detector.bottom")?;
+    let trimmer_position = rd.opt(&t.trimmer_position, |r, v| {
+        r.fraction_in(v, "detector.trimmer_position", 0.0, 1.0)
+    })?;
+    let divider_current_a = rd.opt(&t.divider_current, |r, v| {
+        r.positive(v, "detector.divider_current", Dimension::Current)
+    })?;
+    let hysteresis = match &t.hysteresis {
+        None => HysteresisSpec::None,
+        Some(v) => match v.get_ref() {
+            Scalar::Text(s) if s.trim().eq_ignore_ascii_case("none") => HysteresisSpec::None,
+            Scalar::Text(s) => {
+                if let Ok(u) = parse_quantity(s, Dimension::Velocity) {
+                    if !(u > 0.0) {
+                        return Err(rd.err(Some(v.span()), "detector.hysteresis", format!("expected a band above 0 m/s, found {u} m/s")));
+                    }
+                    HysteresisSpec::Airflow(u)
+                } else {
+                    match parse_quantity(s, Dimension::Voltage) {
+                        Ok(x) if x > 0.0 => HysteresisSpec::Volts(x),
+                        _ => {
+                            return Err(rd.err(
+                                Some(v.span()),
+                                "detector.hysteresis",
+                                format!("expected an airflow band such as \"0.05 m/s\", a voltage band such as \"20 mV\", or \"none\"; found \"{s}\""),
+                            ))
+                        }
+                    }
+                }
+            }
+            Scalar::Number(n) => {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "detector.hysteresis",
+                    format!("missing unit: expected an airflow band such as \"0.05 m/s\" or a voltage band such as \"20 mV\", found the bare number {n}"),
+                ))
+            }
+        },
+    };
+    let feedback_ohm = sz(rd, &t.feedback, "detector.feedback")?;
+    let input_resistor_ohm = sz(rd, &t.input_resistor, "detector.input_resistor")?;
+    let detector = Detector {
+        trip_airflow_m_per_s,
+        trip_on,
+        reference_rail,
+        top_ohm,
+        trimmer_ohm,
+        bottom_ohm,
+        trimmer_position,
+        divider_current_a,
+        hysteresis,
+        feedback_ohm,
+        input_resistor_ohm,
+    };
+
+    let comparator = build_comparator(rd, raw.comparator.as_ref(), reference_rail, has_reg)?;
+    let output = match &raw.output {
+        Some(o) => Some(build_output(rd, o, has_reg)?),
+        None => None,
+    };
+    let ratings = match &raw.ratings {
+        None => {
+            rd.assumptions.push("ratings not given: resistors run at no more than 50 % of rated power (common practice); trimmer rated 0.1 W (typical)".into());
+            RatingsSpec {
+                resistor_derating: 0.5,
+                trimmer_power_w: 0.1,
+            }
+        }
+        Some(g) => RatingsSpec {
+            resistor_derating: rd.or_default(
+                &g.resistor_derating,
+                0.5,
+                "ratings.resistor_derating not given: 50 % (common practice)",
+                |r, v| r.fraction_in(v, "ratings.resistor_derating", 0.05, 1.0),
+            )?,
+            trimmer_power_w: rd.or_default(
+                &g.trimmer_power,
+                0.1,
+                "ratings.trimmer_power not given: 0.1 W (typical)",
+                |r, v| r.positive(v, "ratings.trimmer_power", Dimension::Power),
+            )?,
+        },
+    };
+
+    Ok(Design {
+        title,
+        e_series,
+        ambient,
+        supply,
+        element,
+        element_tolerance,
+        drive,
+        drive_tolerance,
+        overheat,
+        detector,
+        comparator,
+        output,
+        ratings,
+        assumptions: std::mem::take(&mut rd.assumptions),
+    })
+}
+
+/// Pressure of the U.S. Standard Atmosphere 1976 in the troposphere:
+/// `p = 101325·(1 − 0.0065·h/288.15)^5.25588` Pa, h in m (NOAA/NASA/USAF,
+/// *U.S. Standard Atmosphere, 1976*, eq. 33a with the tabulated lapse rate).
+pub fn standard_atmosphere_pressure_pa(altitude_m: f64) -> f64 {
+    101_325.0 * (1.0 - 0.0065 * altitude_m / 288.15).powf(5.255_88)
+}
+
+fn build_comparator(
+    rd: &mut Reader<'_>,
+    c: Option<&raw::RawComparator>,
+    default_rail: Rail,
+    has_reg: bool,
+) -> R<ComparatorSpec> {
+    // Typical figures of the open-collector comparator class (no specific
+    // part): offset 5 mV, bias 250 nA, common mode 0 … V+ − 1.5 V, sink
+    // 16 mA at 0.4 V, supply 2–36 V, 1 mA supply current.
+    let empty = raw::RawComparator {
+        rail: None,
+        offset: None,
+        bias_current: None,
+        common_mode_low: None,
+        common_mode_headroom: None,
+        sink_max: None,
+        output_low: None,
+        supply_min: None,
+        supply_max: None,
+        supply_current: None,
+        pullup: None,
+    };
+    let section_given = c.is_some();
+    if !section_given {
+        rd.assumptions.push("no [comparator] section: typical open-collector comparator figures used (offset 5 mV, bias 250 nA, common mode 0 V to V+ − 1.5 V, sink 16 mA at 0.4 V, supply 2–36 V, 1 mA)".into());
+    }
+    let c = c.unwrap_or(&empty);
+    let rail = match &c.rail {
+        Some(w) => rd.rail(w, "comparator.rail", has_reg)?,
+        None => default_rail,
+    };
+    let field = |rd: &mut Reader<'_>,
+                 v: &Option<Value>,
+                 name: &str,
+                 dim: Dimension,
+                 typical: f64,
+                 shown: &str|
+     -> R<f64> {
+        let full = format!("comparator.{name}");
+        match v {
+            Some(v) => rd.non_negative(v, &full, dim),
+            None => {
+                if section_given {
+                    rd.assumptions.push(format!("{full} not given: {shown} assumed (typical of the open-collector comparator class)"));
+                }
+                Ok(typical)
+            }
+        }
+    };
+    let offset_v = field(rd, &c.offset, "offset", Dimension::Voltage, 5e-3, "5 mV")?;
+    let bias_a = field(
+        rd,
+        &c.bias_current,
+        "bias_current",
+        Dimension::Current,
+        250e-9,
+        "250 nA",
+    )?;
+    let common_mode_low_v = field(
+        rd,
+        &c.common_mode_low,
+        "common_mode_low",
+        Dimension::Voltage,
+        0.0,
+        "0 V",
+    )?;
+    let common_mode_headroom_v = field(
+        rd,
+        &c.common_mode_headroom,
+        "common_mode_headroom",
+        Dimension::Voltage,
+        1.5,
+        "1.5 V",
+    )?;
+    let sink_max_a = field(
+        rd,
+        &c.sink_max,
+        "sink_max",
+        Dimension::Current,
+        16e-3,
+        "16 mA",
+    )?;
+    let output_low_v = field(
+        rd,
+        &c.output_low,
+        "output_low",
+        Dimension::Voltage,
+        0.4,
+        "0.4 V",
+    )?;
+    let supply_min_v = field(
+        rd,
+        &c.supply_min,
+        "supply_min",
+        Dimension::Voltage,
+        2.0,
+        "2 V",
+    )?;
+    let supply_max_v = field(
+        rd,
+        &c.supply_max,
+        "supply_max",
+        Dimension::Voltage,
+        36.0,
+        "36 V",
+    )?;
+    let supply_current_a = field(
+        rd,
+        &c.supply_current,
+        "supply_current",
+        Dimension::Current,
+        1e-3,
+        "1 mA",
+    )?;
+    let pullup_ohm = match &c.pullup {
+        Some(v) => rd.sizable(v, "comparator.pullup", Dimension::Resistance)?,
+        None => Sizable::Auto,
+    };
+    Ok(ComparatorSpec {
+        rail,
+        offset_v,
+        bias_a,
+        common_mode_low_v,
+        common_mode_headroom_v,
+        sink_max_a,
+        output_low_v,
+        supply_min_v,
+        supply_max_v,
+        supply_current_a,
+        pullup_ohm,
+    })
+}
+
+fn build_output(rd: &mut Reader<'_>, o: &raw::RawOutput, has_reg: bool) -> R<OutputSpec> {
+    let stage = match &o.stage {
+        None => StageKind::Auto,
+        Some(w) => match rd.word(
+            w,
+            "output.stage",
+            &["auto", "direct", "npn-low-side", "pnp-high-side"],
+        )? {
+            "auto" => StageKind::Auto,
+            "direct" => StageKind::Direct,
+            "npn-low-side" => StageKind::NpnLowSide,
+            _ => StageKind::PnpHighSide,
+        },
+    };
+    let near = Some(o.load.span());
+    let load = match rd.word(&o.load, "output.load", &["led", "buzzer", "relay"])? {
+        "led" => Load::Led {
+            forward_v: rd.positive(
+                rd.required(
+                    &o.led_forward,
+                    "output.led_forward",
+                    near.clone(),
+                    "the LED forward voltage, e.g. led_forward = \"2.0 V\"",
+                )?,
+                "output.led_forward",
+                Dimension::Voltage,
+            )?,
+            current_a: rd.positive(
+                rd.required(
+                    &o.led_current,
+                    "output.led_current",
+                    near,
+                    "the wanted LED current, e.g. led_current = \"5 mA\"",
+                )?,
+                "output.led_current",
+                Dimension::Current,
+            )?,
+        },
+        "buzzer" => Load::Buzzer {
+            current_a: rd.positive(
+                rd.required(
+                    &o.buzzer_current,
+                    "output.buzzer_current",
+                    near,
+                    "the buzzer current at its rated voltage, e.g. buzzer_current = \"25 mA\"",
+                )?,
+                "output.buzzer_current",
+                Dimension::Current,
+            )?,
+        },
+        _ => Load::Relay {
+            coil_v: rd.positive(
+                rd.required(
+                    &o.coil_voltage,
+                    "output.coil_voltage",
+                    near.clone(),
+                    "the relay coil's rated voltage, e.g. coil_voltage = \"12 V\"",
+                )?,
+                "output.coil_voltage",
+                Dimension::Voltage,
+            )?,
+            coil_ohm: rd.positive(
+                rd.required(
+                    &o.coil_resistance,
+                    "output.coil_resistance",
+                    near,
+                    "the relay coil resistance, e.g. coil_resistance = \"400 ohm\"",
+                )?,
+                "output.coil_resistance",
+                Dimension::Resistance,
+            )?,
+            contact_rating: o.contact_rating.as_ref().map(|w| w.get_ref().clone()),
+            switches_mains: o.switches_mains.unwrap_or(false),
+        },
+    };
+    let rail = match &o.rail {
+        Some(w) => rd.rail(w, "output.rail", has_reg)?,
+        None => Rail::Input,
+    };
+    let forced_gain = rd.or_default(
+        &o.forced_gain,
+        10.0,
+        "output.forced_gain not given: 10 (common practice for a saturated switch)",
+        |r, v| {
+            let x = r.quantity(v, "output.forced_gain", Dimension::Fraction)?;
+            if (2.0..=50.0).contains(&x) {
+                Ok(x)
+            } else {
+                Err(r.err(
+                    Some(v.span()),
+                    "output.forced_gain",
+                    format!("expected a forced gain between 2 and 50, found {x}"),
+                ))
+            }
+        },
+    )?;
+    // Typical small-signal transistor class figures (no specific part).
+    let transistor = match &o.transistor {
+        None => {
+            if stage != StageKind::Direct {
+                rd.assumptions.push("no [output.transistor]: typical small-signal transistor figures used (Vce 40 V, Ic 200 mA, 500 mW, hFE ≥ 100, Vce(sat) 0.2 V, Vbe 0.7 V)".into());
+            }
+            TransistorSpec {
+                vce_max_v: 40.0,
+                ic_max_a: 0.2,
+                power_max_w: 0.5,
+                hfe_min: 100.0,
+                vce_sat_v: 0.2,
+                vbe_on_v: 0.7,
+            }
+        }
+        Some(t) => {
+            let g = |rd: &Reader, v: &Option<Value>, name: &str, dim: Dimension| -> R<f64> {
+                let full = format!("output.transistor.{name}");
+                rd.positive(
+                    rd.required(
+                        v,
+                        &full,
+                        None,
+                        "every transistor figure when the section is given",
+                    )?,
+                    &full,
+                    dim,
+                )
+            };
+            TransistorSpec {
+                vce_max_v: g(rd, &t.vce_max, "vce_max", Dimension::Voltage)?,
+                ic_max_a: g(rd, &t.ic_max, "ic_max", Dimension::Current)?,
+                power_max_w: g(rd, &t.power_max, "power_max", Dimension::Power)?,
+                hfe_min: g(rd, &t.hfe_min, "hfe_min", Dimension::Fraction)?,
+                vce_sat_v: g(rd, &t.vce_sat, "vce_sat", Dimension::Voltage)?,
+                vbe_on_v: g(rd, &t.vbe_on, "vbe_on", Dimension::Voltage)?,
+            }
+        }
+    };
+    let diode = match &o.diode {
+        None => {
+            if matches!(load, Load::Relay { .. }) {
+                rd.assumptions.push("no [output.diode]: typical general-purpose rectifier figures used (400 V, 1 A)".into());
+            }
+            DiodeSpec {
+                reverse_max_v: 400.0,
+                forward_max_a: 1.0,
+            }
+        }
+        Some(d) => DiodeSpec {
+            reverse_max_v: rd.positive(
+                rd.required(
+                    &d.reverse_max,
+                    "output.diode.reverse_max",
+                    None,
+                    "the diode's reverse voltage rating",
+                )?,
+                "output.diode.reverse_max",
+                Dimension::Voltage,
+            )?,
+            forward_max_a: rd.positive(
+                rd.required(
+                    &d.forward_max,
+                    "output.diode.forward_max",
+                    None,
+                    "the diode's forward current rating",
+                )?,
+                "output.diode.forward_max",
+                Dimension::Current,
+            )?,
+        },
+    };
+    Ok(OutputSpec {
+        stage,
+        load,
+        rail,
+        forced_gain,
+        transistor,
+        diode,
+    })
+}

@@ -1,0 +1,112 @@
+//! The self-heated sensing element: its resistance law, its cooling law and
+//! its heat capacity, plus the air it sits in.
+
+pub mod cooling;
+pub mod resistance;
+
+pub use cooling::{CoolingLaw, CoolingLawError, KingsLaw};
+pub use resistance::{LinearTcr, ResistanceLaw, ResistanceLawError};
+
+/// The air around the element.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Environment {
+    /// Ambient (free-stream) air temperature, K.
+    pub ambient_k: f64,
+    /// Absolute air pressure, Pa.
+    pub pressure_pa: f64,
+}
+
+/// Standard atmospheric pressure, 101 325 Pa (ISO 2533:1975, standard atmosphere).
+pub const STANDARD_PRESSURE_PA: f64 = 101_325.0;
+
+impl Environment {
+    /// Air at `ambient_k` and standard pressure.
+    pub fn at(ambient_k: f64) -> Self {
+        Self {
+            ambient_k,
+            pressure_pa: STANDARD_PRESSURE_PA,
+        }
+    }
+}
+
+/// Why an element could not be built.
+#[derive(Debug, Clone, PartialEq, thiserror::Error)]
+pub enum ElementError {
+    /// The heat capacity was not a finite positive number.
+    #[error("heat capacity must be a finite value above 0 J/K, found {0}")]
+    HeatCapacity(f64),
+    /// The maximum temperature was not inside the resistance law's range.
+    #[error("maximum element temperature {found_k} K is outside the resistance law's valid range {lo_k}–{hi_k} K")]
+    MaxTemperature {
+        /// The value given.
+        found_k: f64,
+        /// Low end of the law's range.
+        lo_k: f64,
+        /// High end of the law's range.
+        hi_k: f64,
+    },
+}
+
+/// A validated sensing element.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Element {
+    resistance: ResistanceLaw,
+    cooling: CoolingLaw,
+    heat_capacity_j_per_k: f64,
+    max_temperature_k: Option<f64>,
+}
+
+impl Element {
+    /// Build an element from its laws, heat capacity (J/K, > 0) and an
+    /// optional maximum safe temperature (K).
+    pub fn new(
+        resistance: ResistanceLaw,
+        cooling: CoolingLaw,
+        heat_capacity_j_per_k: f64,
+        max_temperature_k: Option<f64>,
+    ) -> Result<Self, ElementError> {
+        if !(heat_capacity_j_per_k.is_finite() && heat_capacity_j_per_k > 0.0) {
+            return Err(ElementError::HeatCapacity(heat_capacity_j_per_k));
+        }
+        if let Some(t) = max_temperature_k {
+            let (lo, hi) = resistance.valid_range_k();
+            if !(t.is_finite() && t > lo && t <= hi) {
+                return Err(ElementError::MaxTemperature {
+                    found_k: t,
+                    lo_k: lo,
+                    hi_k: hi,
+                });
+            }
+        }
+        Ok(Self {
+            resistance,
+            cooling,
+            heat_capacity_j_per_k,
+            max_temperature_k,
+        })
+    }
+    /// The resistance law.
+    pub fn resistance_law(&self) -> &ResistanceLaw {
+        &self.resistance
+    }
+    /// The cooling law.
+    pub fn cooling_law(&self) -> &CoolingLaw {
+        &self.cooling
+    }
+    /// Lumped heat capacity, J/K.
+    pub fn heat_capacity_j_per_k(&self) -> f64 {
+        self.heat_capacity_j_per_k
+    }
+    /// Maximum safe element temperature, K, when one is known.
+    pub fn max_temperature_k(&self) -> Option<f64> {
+        self.max_temperature_k
+    }
+    /// A copy of this element with another resistance law (used by
+    /// tolerance corners that scale R0).
+    pub fn with_resistance_law(&self, resistance: ResistanceLaw) -> Self {
+        Self {
+            resistance,
+            ..self.clone()
+        }
+    }
+}

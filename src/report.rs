@@ -1,0 +1,186 @@
+//! The sizing report: plain data, in SI-derived units named in every field,
+//! ready for the renderers (text, JSON, CSV).
+
+use serde::Serialize;
+
+/// One solved operating point as reported.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct OperatingPointRow {
+    /// What this point is ("still air", "trip", …).
+    pub label: String,
+    /// Airflow, m/s.
+    pub airflow_m_per_s: f64,
+    /// Ambient, °C.
+    pub ambient_c: f64,
+    /// Element temperature, °C.
+    pub element_temperature_c: f64,
+    /// Element resistance, ohm.
+    pub element_resistance_ohm: f64,
+    /// Element current, A.
+    pub element_current_a: f64,
+    /// Element power, W.
+    pub element_power_w: f64,
+    /// Sense voltage (across the element), V.
+    pub sense_voltage_v: f64,
+    /// Overheat ratio `(R − R_amb)/R_amb`.
+    pub overheat_ratio: f64,
+    /// Lumped thermal time constant, s.
+    pub time_constant_s: f64,
+}
+
+/// The trip point.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct TripSummary {
+    /// Trip direction: "rising" or "falling".
+    pub direction: String,
+    /// Target trip airflow, m/s.
+    pub target_airflow_m_per_s: f64,
+    /// Trip airflow with the reported values and trimmer setting, m/s.
+    pub airflow_m_per_s: f64,
+    /// Airflow at which the output releases again (hysteresis), m/s.
+    pub release_airflow_m_per_s: f64,
+    /// Reference voltage at the comparator input for the trip, V.
+    pub reference_voltage_v: f64,
+    /// Sense voltage at the trip airflow, V.
+    pub sense_voltage_v: f64,
+    /// dV/dU at the trip airflow, V per m/s.
+    pub sensitivity_v_per_m_per_s: f64,
+    /// Trimmer setting, % of travel from its grounded end.
+    pub trimmer_position_percent: f64,
+    /// Trip airflow with the trimmer at its grounded end, m/s (null when
+    /// the sense voltage never reaches that level).
+    pub airflow_at_trimmer_bottom_m_per_s: Option<f64>,
+    /// Trip airflow with the trimmer at its top end, m/s.
+    pub airflow_at_trimmer_top_m_per_s: Option<f64>,
+    /// How far one percent of trimmer travel moves the trip point, m/s.
+    pub airflow_per_percent_travel_m_per_s: f64,
+    /// Trip-point uncertainty from the comparator's input offset, ± m/s.
+    pub offset_uncertainty_m_per_s: f64,
+    /// Which signal goes to the non-inverting input.
+    pub non_inverting_input: String,
+    /// Which signal goes to the inverting input.
+    pub inverting_input: String,
+    /// Where the hysteresis feedback goes and why.
+    pub hysteresis_note: String,
+}
+
+/// One line of the bill of values.
+#[derive(Debug, Clone, PartialEq, Serialize, Default)]
+pub struct ValueRow {
+    /// Designator (draftwire's scheme, see docs/cli.md).
+    pub designator: String,
+    /// Generic part class.
+    pub part: String,
+    /// Chosen value in ohm, for resistors and trimmers.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub value_ohm: Option<f64>,
+    /// Chosen value in farad, for capacitors.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub value_f: Option<f64>,
+    /// Chosen value in ampere, for a current source.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub value_a: Option<f64>,
+    /// Chosen value in volt (ratings of diodes, capacitors).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub value_v: Option<f64>,
+    /// The exact computed value before snapping, same unit as the value.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub exact: Option<f64>,
+    /// E-series or standard list the value was snapped to.
+    pub e_series: String,
+    /// The value as printed (RKM code or with unit).
+    pub text: String,
+    /// Power rating chosen, W, where one applies.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub rating_w: Option<f64>,
+    /// Worst-case dissipation, W, where one applies.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub dissipation_w: Option<f64>,
+    /// Rating in words (voltage, current, …).
+    pub rating: String,
+    /// Why this part and value.
+    pub reason: String,
+}
+
+/// A check that passes or fails.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Check {
+    /// Short name.
+    pub name: String,
+    /// Whether it passed.
+    pub passed: bool,
+    /// What was compared, with the margin.
+    pub detail: String,
+}
+
+/// Trip-point drift across ambient and supply.
+#[derive(Debug, Clone, PartialEq, Serialize, Default)]
+pub struct DriftRow {
+    /// Condition, e.g. "ambient 5 °C".
+    pub condition: String,
+    /// Ambient, °C.
+    pub ambient_c: f64,
+    /// Rail feeding the element, V.
+    pub element_rail_v: f64,
+    /// Rail feeding the reference, V.
+    pub reference_rail_v: f64,
+    /// Trip airflow there, m/s (null when the unit does not trip at any airflow).
+    pub trip_airflow_m_per_s: Option<f64>,
+    /// Shift from the nominal trip airflow, m/s.
+    pub shift_m_per_s: Option<f64>,
+    /// Whether the output is tripped in still air.
+    pub tripped_in_still_air: bool,
+    /// What happens, in words.
+    pub note: String,
+}
+
+/// Supply-current budget.
+#[derive(Debug, Clone, PartialEq, Serialize, Default)]
+pub struct SupplyBudget {
+    /// Current drawn from the input when idle, A.
+    pub idle_a: f64,
+    /// Current drawn from the input when tripped, A.
+    pub tripped_a: f64,
+    /// Regulator dissipation at the worst case, W (0 without a regulator).
+    pub regulator_dissipation_w: f64,
+    /// Regulator junction temperature at the worst case, °C.
+    pub regulator_junction_c: Option<f64>,
+}
+
+/// The whole report.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Report {
+    /// Design title.
+    pub title: String,
+    /// Element description.
+    pub element: String,
+    /// Drive description.
+    pub drive: String,
+    /// Nominal ambient, °C.
+    pub ambient_c: f64,
+    /// Air pressure, Pa.
+    pub pressure_pa: f64,
+    /// Operating points: still air, ½·trip, trip, 2·trip (at nominal ambient).
+    pub operating_points: Vec<OperatingPointRow>,
+    /// The trip point.
+    pub trip: TripSummary,
+    /// The bill of values.
+    pub values: Vec<ValueRow>,
+    /// Trip-point drift.
+    pub drift: Vec<DriftRow>,
+    /// Supply budget.
+    pub supply: SupplyBudget,
+    /// Checks.
+    pub checks: Vec<Check>,
+    /// Cautions that apply.
+    pub cautions: Vec<String>,
+    /// Defaults applied and modelling assumptions.
+    pub assumptions: Vec<String>,
+}
+
+impl Report {
+    /// Whether every check passed.
+    pub fn passed(&self) -> bool {
+        self.checks.iter().all(|c| c.passed)
+    }
+}

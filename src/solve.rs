@@ -1,0 +1,371 @@
+//! Steady operating point of the self-heated element, its time constant,
+//! and the airflow at which the sense voltage reaches a given level.
+//!
+//! Energy balance at steady state (first law of thermodynamics for the
+//! element as a lumped body): `P_elec(T) = P_loss(T, U)`. The residual
+//! `f(T) = P_loss(T, U) − P_elec(T)` is scanned on a physical bracket from
+//! ambient up to the highest temperature the resistance law allows, every
+//! sign change is refined with Brent's method, and each root is classified
+//! by the sign of `df/dT` (stable when `df/dT > 0`: a small rise in T loses
+//! more heat than it gains). Lumped time constant `τ = C/(df/dT)` follows
+//! from linearising `C·dT/dt = −f(T)` about the root (e.g. Incropera et al.,
+//! *Fundamentals of Heat and Mass Transfer*, 6th ed., §5.2, lumped
+//! capacitance). The solve path does not allocate.
+
+use crate::drive::Drive;
+use crate::element::{Element, Environment};
+use crate::precision::SCAN_INTERVALS;
+use crate::roots::{brent, RootError};
+
+/// Most roots a solve records (a physical element has at most three).
+pub const MAX_ROOTS: usize = 4;
+
+/// Smallest temperature rise (K) at which the logarithmic scan starts;
+/// the interval `[T_amb, T_amb + SCAN_MIN_RISE_K]` is scanned as well.
+pub const SCAN_MIN_RISE_K: f64 = 1e-4;
+
+/// Highest airflow (m/s) the trip-airflow search will consider.
+pub const MAX_AIRFLOW_M_PER_S: f64 = 100.0;
+
+/// Why no operating point could be given.
+#[derive(Debug, Clone, Copy, PartialEq, thiserror::Error)]
+pub enum SolveError {
+    /// Electrical power exceeds the losses all the way up to the highest
+    /// temperature the element's law allows: thermal runaway.
+    #[error(
+        "thermal runaway: at {upper_k:.1} K (the top of the element's valid range) the element still takes \
+         {power_w:.4} W but loses only {loss_w:.4} W, so it has no steady temperature"
+    )]
+    Runaway {
+        /// Top of the scanned range, K.
+        upper_k: f64,
+        /// Electrical power there, W.
+        power_w: f64,
+        /// Heat loss there, W.
+        loss_w: f64,
+    },
+    /// Ambient lies outside the resistance law's valid range.
+    #[error("ambient {ambient_k:.2} K is outside the resistance law's valid range {lo_k:.2}–{hi_k:.2} K")]
+    AmbientOutOfRange {
+        /// Ambient, K.
+        ambient_k: f64,
+        /// Low end of the law's range, K.
+        lo_k: f64,
+        /// High end of the law's range, K.
+        hi_k: f64,
+    },
+    /// A model value was not finite inside the bracket.
+    #[error("numerical failure: {0}")]
+    Numerical(RootError),
+    /// The sense voltage never reaches the wanted level between still air
+    /// and the highest airflow considered.
+    #[error(
+        "the sense voltage never reaches {target_v:.4} V: it runs from {at_zero_v:.4} V in still air to \
+         {at_max_v:.4} V at {max_airflow_m_per_s} m/s"
+    )]
+    LevelNotReached {
+        /// The wanted level, V.
+        target_v: f64,
+        /// Sense voltage in still air, V.
+        at_zero_v: f64,
+        /// Sense voltage at the highest airflow considered, V.
+        at_max_v: f64,
+        /// That highest airflow, m/s.
+        max_airflow_m_per_s: f64,
+    },
+}
+
+/// Every root of the energy balance found on the bracket, in rising
+/// temperature, with each one's stability.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct RootSet {
+    temperatures_k: [f64; MAX_ROOTS],
+    stable: [bool; MAX_ROOTS],
+    count: usize,
+    found: usize,
+}
+
+impl RootSet {
+    fn empty() -> Self {
+        Self {
+            temperatures_k: [0.0; MAX_ROOTS],
+            stable: [false; MAX_ROOTS],
+            count: 0,
+            found: 0,
+        }
+    }
+    fn push(&mut self, t_k: f64, stable: bool) {
+        if self.count < MAX_ROOTS {
+            self.temperatures_k[self.count] = t_k;
+            self.stable[self.count] = stable;
+            self.count += 1;
+        }
+        self.found += 1;
+    }
+    /// Number of roots found (may exceed the number recorded).
+    pub fn found(&self) -> usize {
+        self.found
+    }
+    /// The recorded roots as (temperature K, stable).
+    pub fn iter(&self) -> impl Iterator<Item = (f64, bool)> + '_ {
+        (0..self.count).map(|i| (self.temperatures_k[i], self.stable[i]))
+    }
+    /// Whether the balance has more than one stable root (bistable).
+    pub fn is_bistable(&self) -> bool {
+        self.iter().filter(|r| r.1).count() > 1
+    }
+}
+
+/// A solved steady operating point.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct OperatingPoint {
+    /// Airflow, m/s.
+    pub airflow_m_per_s: f64,
+    /// Ambient air temperature, K.
+    pub ambient_k: f64,
+    /// Element temperature, K.
+    pub temperature_k: f64,
+    /// Element resistance, ohm.
+    pub resistance_ohm: f64,
+    /// Element resistance at ambient (unheated), ohm.
+    pub ambient_resistance_ohm: f64,
+    /// Element current, A.
+    pub current_a: f64,
+    /// Electrical power in the element, W.
+    pub power_w: f64,
+    /// Heat lost at the solved temperature, W (equals `power_w` to the
+    /// precision policy).
+    pub heat_loss_w: f64,
+    /// Voltage across the element, V.
+    pub sense_v: f64,
+    /// `df/dT = dP_loss/dT − dP_elec/dT` at the root, W/K (> 0: stable).
+    pub stability_w_per_k: f64,
+    /// Lumped time constant `C/(df/dT)`, s.
+    pub time_constant_s: f64,
+    /// All roots found on the bracket.
+    pub roots: RootSet,
+}
+
+impl OperatingPoint {
+    /// Temperature rise over ambient, K.
+    pub fn rise_k(&self) -> f64 {
+        self.temperature_k - self.ambient_k
+    }
+    /// Overheat ratio `(R_hot − R_amb)/R_amb`, the usual hot-wire
+    /// definition (e.g. Bruun, *Hot-Wire Anemometry*, Oxford 1995, §2.2).
+    pub fn overheat_ratio(&self) -> f64 {
+        (self.resistance_ohm - self.ambient_resistance_ohm) / self.ambient_resistance_ohm
+    }
+    /// Relative closure of the energy balance, `|P_loss − P_elec| / P_elec`.
+    pub fn balance_residual(&self) -> f64 {
+        if self.power_w == 0.0 {
+            (self.heat_loss_w - self.power_w).abs()
+        } else {
+            ((self.heat_loss_w - self.power_w) / self.power_w).abs()
+        }
+    }
+}
+
+/// Residual `f(T) = P_loss − P_elec` and its derivative in T.
+fn residual(element: &Element, drive: &Drive, env: &Environment, u: f64, t_k: f64) -> f64 {
+    let r = element.resistance_law().resistance_ohm(t_k);
+    element.cooling_law().heat_loss_w(t_k, u, env) - drive.power_w(r)
+}
+
+fn residual_slope(element: &Element, drive: &Drive, env: &Environment, u: f64, t_k: f64) -> f64 {
+    let law = element.resistance_law();
+    let r = law.resistance_ohm(t_k);
+    element.cooling_law().d_heat_loss_dt(t_k, u, env)
+        - drive.dpower_dr(r) * law.derivative_ohm_per_k(t_k)
+}
+
+/// Solve the steady energy balance at airflow `airflow_m_per_s`.
+///
+/// Returns the first root above ambient — the one an element warming from
+/// cold settles at, which is always stable because `f(T_amb) ≤ 0` — with
+/// every root found recorded in [`OperatingPoint::roots`].
+pub fn operating_point(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    airflow_m_per_s: f64,
+) -> Result<OperatingPoint, SolveError> {
+    let u = airflow_m_per_s;
+    let law = element.resistance_law();
+    let (lo, hi) = law.valid_range_k();
+    let ta = env.ambient_k;
+    if !(ta >= lo && ta < hi) {
+        return Err(SolveError::AmbientOutOfRange {
+            ambient_k: ta,
+            lo_k: lo,
+            hi_k: hi,
+        });
+    }
+    let f = |t: f64| residual(element, drive, env, u, t);
+    let mut roots = RootSet::empty();
+    let mut first: Option<f64> = None;
+
+    let f_amb = f(ta);
+    if !f_amb.is_finite() {
+        return Err(SolveError::Numerical(RootError::NotFinite { x: ta }));
+    }
+    if f_amb == 0.0 {
+        // No power at all: the element sits at ambient.
+        roots.push(ta, true);
+        first = Some(ta);
+    }
+    // Logarithmic scan of the rise from SCAN_MIN_RISE_K to the top of range,
+    // so that small overheats are resolved as finely as large ones.
+    let max_rise = hi - ta;
+    let min_rise = SCAN_MIN_RISE_K.min(0.5 * max_rise);
+    let ratio = (max_rise / min_rise).ln();
+    let (mut t_prev, mut f_prev) = (ta, f_amb);
+    for k in 0..=SCAN_INTERVALS {
+        let rise = if k == SCAN_INTERVALS {
+            max_rise
+        } else {
+            min_rise * (ratio * k as f64 / SCAN_INTERVALS as f64).exp()
+        };
+        let t = ta + rise;
+        let ft = f(t);
+        if !ft.is_finite() {
+            return Err(SolveError::Numerical(RootError::NotFinite { x: t }));
+        }
+        if f_prev != 0.0 && (ft == 0.0 || ft.signum() != f_prev.signum()) {
+            let root = brent(f, t_prev, t).map_err(SolveError::Numerical)?;
+            let stable = residual_slope(element, drive, env, u, root.x) > 0.0;
+            roots.push(root.x, stable);
+            if first.is_none() {
+                first = Some(root.x);
+            }
+        }
+        t_prev = t;
+        f_prev = ft;
+    }
+    let Some(t) = first else {
+        let r = law.resistance_ohm(hi);
+        return Err(SolveError::Runaway {
+            upper_k: hi,
+            power_w: drive.power_w(r),
+            loss_w: element.cooling_law().heat_loss_w(hi, u, env),
+        });
+    };
+    Ok(point_at(element, drive, env, u, t, roots))
+}
+
+fn point_at(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+    t: f64,
+    roots: RootSet,
+) -> OperatingPoint {
+    let law = element.resistance_law();
+    let r = law.resistance_ohm(t);
+    let slope = residual_slope(element, drive, env, u, t);
+    OperatingPoint {
+        airflow_m_per_s: u,
+        ambient_k: env.ambient_k,
+        temperature_k: t,
+        resistance_ohm: r,
+        ambient_resistance_ohm: law.resistance_ohm(env.ambient_k),
+        current_a: drive.current_a(r),
+        power_w: drive.power_w(r),
+        heat_loss_w: element.cooling_law().heat_loss_w(t, u, env),
+        sense_v: drive.sense_v(r),
+        stability_w_per_k: slope,
+        time_constant_s: if slope > 0.0 {
+            element.heat_capacity_j_per_k() / slope
+        } else {
+            f64::INFINITY
+        },
+        roots,
+    }
+}
+
+/// Sensitivity of the sense voltage to airflow at a solved point, V per m/s,
+/// by implicit differentiation of `f(T, U) = 0`:
+/// `dT/dU = −(∂P_loss/∂U)/(∂f/∂T)`, `dV/dU = dV/dR · dR/dT · dT/dU`.
+pub fn sensitivity_v_per_m_per_s(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    point: &OperatingPoint,
+) -> f64 {
+    let law = element.resistance_law();
+    let t = point.temperature_k;
+    let dloss_du = element
+        .cooling_law()
+        .d_heat_loss_du(t, point.airflow_m_per_s, env);
+    let dt_du = -dloss_du / point.stability_w_per_k;
+    drive.dsense_dr(point.resistance_ohm) * law.derivative_ohm_per_k(t) * dt_du
+}
+
+/// Sense voltage at airflow `u`.
+pub fn sense_at(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+) -> Result<f64, SolveError> {
+    operating_point(element, drive, env, u).map(|p| p.sense_v)
+}
+
+/// The airflow (m/s) at which the sense voltage equals `level_v`.
+///
+/// The sense voltage is monotone in airflow for every element draftwire
+/// models; the search brackets the root by doubling from `hint_m_per_s` up
+/// to [`MAX_AIRFLOW_M_PER_S`], then refines it with Brent's method.
+pub fn airflow_for_sense(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    level_v: f64,
+    hint_m_per_s: f64,
+) -> Result<f64, SolveError> {
+    let g = |u: f64| sense_at(element, drive, env, u).map(|v| v - level_v);
+    let g0 = g(0.0)?;
+    if g0 == 0.0 {
+        return Ok(0.0);
+    }
+    let mut hi = if hint_m_per_s.is_finite() && hint_m_per_s > 0.0 {
+        2.0 * hint_m_per_s
+    } else {
+        1.0
+    };
+    hi = hi.min(MAX_AIRFLOW_M_PER_S);
+    let mut lo = 0.0;
+    let mut g_hi = g(hi)?;
+    while g_hi.signum() == g0.signum() && g_hi != 0.0 {
+        if hi >= MAX_AIRFLOW_M_PER_S {
+            return Err(SolveError::LevelNotReached {
+                target_v: level_v,
+                at_zero_v: g0 + level_v,
+                at_max_v: g_hi + level_v,
+                max_airflow_m_per_s: MAX_AIRFLOW_M_PER_S,
+            });
+        }
+        lo = hi;
+        hi = (2.0 * hi).min(MAX_AIRFLOW_M_PER_S);
+        g_hi = g(hi)?;
+    }
+    // Errors inside the closure are carried out through a flag, so the
+    // Brent call stays allocation-free.
+    let mut failure: Option<SolveError> = None;
+    let root = brent(
+        |u| match g(u) {
+            Ok(v) => v,
+            Err(e) => {
+                failure.get_or_insert(e);
+                f64::NAN
+            }
+        },
+        lo,
+        hi,
+    );
+    if let Some(e) = failure {
+        return Err(e);
+    }
+    root.map(|r| r.x).map_err(SolveError::Numerical)
+}
