@@ -4,6 +4,7 @@
 
 use crate::circuit::divider::{Divider, DividerError, STANDARD_TRIMMER_OHM};
 use crate::circuit::frontend::{Arrangement, FrontEnd, OutputState};
+use crate::circuit::hysteresis::MIN_FEEDBACK_TO_PULLUP_RATIO;
 use crate::design::model::{
     Design, DriveSpec, HysteresisSpec, Load, OverheatTarget, Rail, Sizable, StageKind,
     TripDirection,
@@ -520,6 +521,10 @@ pub fn trimmer_position(front: &FrontEnd, idle: OutputState, v_t: f64, sense_src
     }
 }
 
+/// Band reported for a feedback so strong that the release level lies
+/// beyond any airflow (keeps the band function finite and monotone), m/s.
+const BAND_BEYOND_RANGE: f64 = 1e3;
+
 /// Size the feedback resistor for the wanted band (airflow or volts):
 /// a Brent search on ln Rf, re-trimming to target at each trial so that the
 /// trip point stays on target while the release point moves.
@@ -544,11 +549,13 @@ fn size_feedback(
         let release = fe.switching_sense_v(x, idle.other(), sense_src);
         match want {
             HysteresisSpec::Volts(_) => Ok((release - v_t).abs()),
-            _ => {
-                let u = airflow_for_sense(element, drive, env, release, u_t)
-                    .map_err(solve_ctx("hysteresis band"))?;
-                Ok((u - u_t).abs())
-            }
+            _ => match airflow_for_sense(element, drive, env, release, u_t) {
+                Ok(u) => Ok((u - u_t).abs()),
+                // The release level lies beyond anything airflow can reach:
+                // the band is wider than the whole airflow range.
+                Err(SolveError::LevelNotReached { .. }) => Ok(BAND_BEYOND_RANGE),
+                Err(e) => Err(solve_ctx("hysteresis band")(e)),
+            },
         }
     };
     let target = match want {
@@ -556,12 +563,24 @@ fn size_feedback(
         HysteresisSpec::Airflow(u) => u,
         HysteresisSpec::None => return Err(SizeError::Hysteresis("no band wanted".into())),
     };
-    let (lo, hi) = (100.0f64.ln(), 100e6f64.ln());
+    // Feedback at least 10× the pull-up keeps the output-high level set by
+    // the pull-up rather than by the feedback path (TI comparator data
+    // sheet SNOSDA4D, hysteresis section: "RPU should be at least 10x less
+    // than R2").
+    let rf_min = MIN_FEEDBACK_TO_PULLUP_RATIO * front.output_high.1;
+    let (lo, hi) = (rf_min.ln(), 100e6f64.ln());
     let b_lo = band(lo)?;
     let b_hi = band(hi)?;
+    let unit = if matches!(want, HysteresisSpec::Volts(_)) {
+        "V"
+    } else {
+        "m/s"
+    };
     if target > b_lo {
         return Err(SizeError::Hysteresis(format!(
-            "the widest band the output swing can give is {b_lo:.4} (with a 100 ohm feedback resistor); {target} was asked for"
+            "{target} {unit} was asked for, but the widest band this output can give is {:.4} {unit} \
+             (feedback {rf_min:.0} ohm, ten times the pull-up); ask for less hysteresis",
+            b_lo.min(BAND_BEYOND_RANGE)
         )));
     }
     if target < b_hi {

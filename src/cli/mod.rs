@@ -1,0 +1,151 @@
+//! The command line: parse arguments, read files, call the library, render,
+//! write, and map the outcome to an exit status (0 pass, 1 a design check
+//! failed, 2 bad input or usage).
+
+use clap::{Parser, Subcommand, ValueEnum};
+use draftwire::design::parse_design;
+use draftwire::render;
+use std::io::Write;
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+/// Design calculator for airflow and draught detectors built around a
+/// self-heated resistive element.
+#[derive(Debug, Parser)]
+#[command(name = "draftwire", version, about, long_about = None)]
+struct Cli {
+    #[command(subcommand)]
+    command: Command,
+}
+
+#[derive(Debug, Subcommand)]
+enum Command {
+    /// Size and check a design: operating points, trip point, bill of values, checks, cautions.
+    Size {
+        /// The design file (TOML).
+        design: PathBuf,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
+        /// Which table to write with --format csv.
+        #[arg(long, value_enum, default_value_t = CsvTable::Values)]
+        table: CsvTable,
+    },
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+enum Format {
+    /// Aligned text for people.
+    Text,
+    /// JSON, units in the key names.
+    Json,
+    /// CSV, one table (see --table).
+    Csv,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+enum CsvTable {
+    /// The bill of values.
+    Values,
+    /// The operating points.
+    OperatingPoints,
+    /// The checks.
+    Checks,
+    /// The trip-point drift.
+    Drift,
+}
+
+/// Exit status: every check passed.
+const EXIT_PASS: u8 = 0;
+/// Exit status: a design check failed.
+const EXIT_DESIGN_FAIL: u8 = 1;
+/// Exit status: bad input or usage.
+const EXIT_INPUT: u8 = 2;
+
+/// Write to stdout; a closed pipe (`draftwire … | head`) is a normal end.
+fn emit(text: &str) -> bool {
+    let stdout = std::io::stdout();
+    let mut lock = stdout.lock();
+    match lock.write_all(text.as_bytes()).and_then(|_| lock.flush()) {
+        Ok(()) => true,
+        Err(e) if e.kind() == std::io::ErrorKind::BrokenPipe => true,
+        Err(e) => {
+            eprintln!("error: cannot write output: {e}");
+            false
+        }
+    }
+}
+
+fn read(path: &Path) -> Result<String, String> {
+    std::fs::read_to_string(path)
+        .map_err(|e| format!("error: cannot read design file {}: {e}", path.display()))
+}
+
+/// Run the command line and return its exit status.
+pub fn run() -> ExitCode {
+    let cli = match Cli::try_parse() {
+        Ok(c) => c,
+        Err(e) => {
+            let code = if e.use_stderr() {
+                EXIT_INPUT
+            } else {
+                EXIT_PASS
+            };
+            let _ = e.print();
+            return ExitCode::from(code);
+        }
+    };
+    match cli.command {
+        Command::Size {
+            design,
+            format,
+            table,
+        } => size(&design, format, table),
+    }
+}
+
+fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
+    let source = match read(path) {
+        Ok(s) => s,
+        Err(e) => {
+            eprintln!("{e}");
+            return ExitCode::from(EXIT_INPUT);
+        }
+    };
+    let file = path.display().to_string();
+    let design = match parse_design(&file, &source) {
+        Ok(d) => d,
+        Err(d) => {
+            eprintln!("error: {d}");
+            return ExitCode::from(EXIT_INPUT);
+        }
+    };
+    let report = match draftwire::analysis::size(&design) {
+        Ok(r) => r,
+        Err(e) => {
+            eprintln!("design failed: {file}: {e}");
+            return ExitCode::from(EXIT_DESIGN_FAIL);
+        }
+    };
+    let text = match format {
+        Format::Text => render::text::render(&report, &file),
+        Format::Json => render::json::render(&report),
+        Format::Csv => render::csv::render(
+            &report,
+            match table {
+                CsvTable::Values => render::csv::Table::Values,
+                CsvTable::OperatingPoints => render::csv::Table::OperatingPoints,
+                CsvTable::Checks => render::csv::Table::Checks,
+                CsvTable::Drift => render::csv::Table::Drift,
+            },
+        ),
+    };
+    if !emit(&text) {
+        return ExitCode::from(EXIT_INPUT);
+    }
+    ExitCode::from(if report.passed() {
+        EXIT_PASS
+    } else {
+        EXIT_DESIGN_FAIL
+    })
+}

@@ -1,0 +1,6 @@
+//! Renderers: pure functions from a report to text. Each format keeps a
+//! fixed field order.
+
+pub mod csv;
+pub mod json;
+pub mod text;
