@@ -1023,7 +1023,7 @@ fn build_comparator(
 ) -> R<ComparatorSpec> {
     // Typical figures of the open-collector comparator class (no specific
     // part): offset 5 mV, bias 250 nA, common mode 0 … V+ − 1.5 V, sink
-    // 16 mA at 0.4 V, supply 2–36 V, 1 mA supply current.
+    // 4 mA at 0.4 V (the class specifies its 0.4 V low level at 4 mA), supply 2–36 V, 1 mA supply current.
     let empty = raw::RawComparator {
         rail: None,
         offset: None,
@@ -1037,9 +1037,10 @@ fn build_comparator(
         supply_current: None,
         pullup: None,
     };
+    let typical = crate::circuit::comparator::ComparatorParams::typical_open_collector();
     let section_given = c.is_some();
     if !section_given {
-        rd.assumptions.push("no [comparator] section: typical open-collector comparator figures used (offset 5 mV, bias 250 nA, common mode 0 V to V+ − 1.5 V, sink 16 mA at 0.4 V, supply 2–36 V, 1 mA)".into());
+        rd.assumptions.push("no [comparator] section: typical open-collector comparator figures used (offset 5 mV, bias 250 nA, common mode 0 V to V+ − 1.5 V, sink 4 mA at 0.4 V, supply 2–36 V, 1 mA)".into());
     }
     let c = c.unwrap_or(&empty);
     let rail = match &c.rail {
@@ -1094,8 +1095,8 @@ fn build_comparator(
         &c.sink_max,
         "sink_max",
         Dimension::Current,
-        16e-3,
-        "16 mA",
+        typical.output_sink_max_a,
+        "4 mA",
     )?;
     let output_low_v = field(
         rd,
