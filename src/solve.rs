@@ -24,6 +24,10 @@ pub const MAX_ROOTS: usize = 4;
 /// the interval `[T_amb, T_amb + SCAN_MIN_RISE_K]` is scanned as well.
 pub const SCAN_MIN_RISE_K: f64 = 1e-4;
 
+/// Halvings of the starting airflow the trip-airflow search tries before it
+/// evaluates still air itself.
+pub const SEARCH_HALVINGS: usize = 12;
+
 /// Highest airflow (m/s) the trip-airflow search will consider.
 pub const MAX_AIRFLOW_M_PER_S: f64 = 100.0;
 
@@ -60,13 +64,13 @@ pub enum SolveError {
     /// The sense voltage never reaches the wanted level between still air
     /// and the highest airflow considered.
     #[error(
-        "the sense voltage never reaches {target_v:.4} V: it runs from {at_zero_v:.4} V in still air to \
-         {at_max_v:.4} V at {max_airflow_m_per_s} m/s"
+        "the sense voltage never reaches {target_v:.4} V: it runs from {at_zero_v:.4} V at the lowest airflow \
+         with a steady state to {at_max_v:.4} V at {max_airflow_m_per_s} m/s"
     )]
     LevelNotReached {
         /// The wanted level, V.
         target_v: f64,
-        /// Sense voltage in still air, V.
+        /// Sense voltage at the lowest airflow tried with a steady state, V.
         at_zero_v: f64,
         /// Sense voltage at the highest airflow considered, V.
         at_max_v: f64,
@@ -315,8 +319,11 @@ pub fn sense_at(
 /// The airflow (m/s) at which the sense voltage equals `level_v`.
 ///
 /// The sense voltage is monotone in airflow for every element draftwire
-/// models; the search brackets the root by doubling from `hint_m_per_s` up
-/// to [`MAX_AIRFLOW_M_PER_S`], then refines it with Brent's method.
+/// models. The search starts at `hint_m_per_s`, walks down by halving
+/// (ending at still air) or up by doubling (ending at
+/// [`MAX_AIRFLOW_M_PER_S`]) until the level is bracketed, then refines the
+/// root with Brent's method. Airflows at which the element has no steady
+/// state (runaway in near-still air) end the downward walk.
 pub fn airflow_for_sense(
     element: &Element,
     drive: &Drive,
@@ -325,31 +332,58 @@ pub fn airflow_for_sense(
     hint_m_per_s: f64,
 ) -> Result<f64, SolveError> {
     let g = |u: f64| sense_at(element, drive, env, u).map(|v| v - level_v);
-    let g0 = g(0.0)?;
-    if g0 == 0.0 {
-        return Ok(0.0);
-    }
-    let mut hi = if hint_m_per_s.is_finite() && hint_m_per_s > 0.0 {
-        2.0 * hint_m_per_s
+    let start = if hint_m_per_s.is_finite() && hint_m_per_s > 0.0 {
+        hint_m_per_s.min(MAX_AIRFLOW_M_PER_S)
     } else {
         1.0
     };
-    hi = hi.min(MAX_AIRFLOW_M_PER_S);
-    let mut lo = 0.0;
-    let mut g_hi = g(hi)?;
-    while g_hi.signum() == g0.signum() && g_hi != 0.0 {
-        if hi >= MAX_AIRFLOW_M_PER_S {
-            return Err(SolveError::LevelNotReached {
-                target_v: level_v,
-                at_zero_v: g0 + level_v,
-                at_max_v: g_hi + level_v,
-                max_airflow_m_per_s: MAX_AIRFLOW_M_PER_S,
-            });
-        }
-        lo = hi;
-        hi = (2.0 * hi).min(MAX_AIRFLOW_M_PER_S);
-        g_hi = g(hi)?;
+    let g_start = g(start)?;
+    if g_start == 0.0 {
+        return Ok(start);
     }
+    let (mut lowest, mut g_lowest) = (start, g_start);
+    let (mut highest, mut g_highest) = (start, g_start);
+    let mut bracket: Option<(f64, f64)> = None;
+    // Walk down.
+    for k in 1..=SEARCH_HALVINGS + 1 {
+        let u = if k > SEARCH_HALVINGS { 0.0 } else { start / f64::powi(2.0, k as i32) };
+        match g(u) {
+            Ok(v) => {
+                if v == 0.0 {
+                    return Ok(u);
+                }
+                if v.signum() != g_lowest.signum() {
+                    bracket = Some((u, lowest));
+                    break;
+                }
+                lowest = u;
+                g_lowest = v;
+            }
+            Err(SolveError::Runaway { .. }) => break,
+            Err(e) => return Err(e),
+        }
+    }
+    // Walk up.
+    while bracket.is_none() && highest < MAX_AIRFLOW_M_PER_S {
+        let u = (2.0 * highest).min(MAX_AIRFLOW_M_PER_S);
+        let v = g(u)?;
+        if v == 0.0 {
+            return Ok(u);
+        }
+        if v.signum() != g_highest.signum() {
+            bracket = Some((highest, u));
+        }
+        highest = u;
+        g_highest = v;
+    }
+    let Some((lo, hi)) = bracket else {
+        return Err(SolveError::LevelNotReached {
+            target_v: level_v,
+            at_zero_v: g_lowest + level_v,
+            at_max_v: g_highest + level_v,
+            max_airflow_m_per_s: MAX_AIRFLOW_M_PER_S,
+        });
+    };
     // Errors inside the closure are carried out through a flag, so the
     // Brent call stays allocation-free.
     let mut failure: Option<SolveError> = None;

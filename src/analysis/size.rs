@@ -392,7 +392,7 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
             None,
         ),
         (top, trim, bottom) => {
-            let d = Divider::size_with(
+            let (d, (exact_top, exact_bottom)) = Divider::size_with(
                 ref_rail_v,
                 k_t,
                 k_lo.min(k_t),
@@ -403,9 +403,6 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
                 fixed(trim),
                 fixed(bottom),
             )?;
-            let total = ref_rail_v / current;
-            let exact_bottom = k_t * total - 0.5 * d.trimmer_ohm;
-            let exact_top = total - d.trimmer_ohm - exact_bottom;
             (d, Some((exact_top, d.trimmer_ohm, exact_bottom)))
         }
     };

@@ -86,7 +86,8 @@ impl Divider {
     /// `k_mid` and its travel covers `[k_low, k_high]` with margin, drawing
     /// about `current_a` from `rail_v`. Fixed values come from `series`;
     /// among the neighbouring preferred values the pair that puts the
-    /// wanted ratio closest to mid-travel is chosen. Any of the three parts
+    /// wanted ratio closest to mid-travel is chosen; the ideal (unsnapped)
+    /// top and bottom values are returned beside it. Any of the three parts
     /// may be fixed by the caller; then only the others are chosen, and when
     /// no choice covers the span the closest is returned for the checks to
     /// judge.
@@ -101,7 +102,7 @@ impl Divider {
         top: Option<f64>,
         trimmer: Option<f64>,
         bottom: Option<f64>,
-    ) -> Result<Divider, DividerError> {
+    ) -> Result<(Divider, (f64, f64)), DividerError> {
         let half = (k_mid - k_low).max(k_high - k_mid).max(0.01 * k_mid) * TRIMMER_SPAN_MARGIN;
         let (lo, hi) = (k_mid - half, k_mid + half);
         let any_fixed = top.is_some() || trimmer.is_some() || bottom.is_some();
@@ -123,6 +124,8 @@ impl Divider {
         // needed, the fixed parts shrink accordingly.
         let total = total.max(trimmer / (2.0 * half));
         let bottom_ideal = (k_mid * total - 0.5 * trimmer).max(series.at_or_above(1.0));
+        let top_ideal_at_ideal = (bottom_ideal + 0.5 * trimmer) / k_mid - trimmer - bottom_ideal;
+        let exact = (top_ideal_at_ideal, bottom_ideal);
         let bottoms: Vec<f64> = match bottom {
             Some(b) => vec![b],
             None => neighbours(series, bottom_ideal).to_vec(),
@@ -153,8 +156,8 @@ impl Divider {
             }
         }
         match (best_cover, best_any) {
-            (Some((_, d)), _) => Ok(d),
-            (None, Some((_, d))) if any_fixed => Ok(d),
+            (Some((_, d)), _) => Ok((d, exact)),
+            (None, Some((_, d))) if any_fixed => Ok((d, exact)),
             _ => Err(DividerError::OutOfRail { low: lo, high: hi }),
         }
     }

@@ -4,7 +4,7 @@ use crate::quantity::format_engineering;
 use crate::report::Report;
 use std::fmt::Write;
 
-/// A plain aligned table: first column left-aligned, others right-aligned.
+/// A plain aligned table; each column left- (`l`) or right-aligned (`r`).
 struct Table {
     rows: Vec<Vec<String>>,
 }
@@ -18,7 +18,8 @@ impl Table {
     fn push(&mut self, row: Vec<String>) {
         self.rows.push(row);
     }
-    fn render(&self, out: &mut String, indent: &str, left_cols: usize) {
+    fn render(&self, out: &mut String, indent: &str, align: &str) {
+        let align: Vec<char> = align.chars().collect();
         let n = self.rows.iter().map(Vec::len).max().unwrap_or(0);
         let widths: Vec<usize> = (0..n)
             .map(|i| {
@@ -37,7 +38,7 @@ impl Table {
                 if i > 0 {
                     line.push_str("  ");
                 }
-                if i < left_cols {
+                if align.get(i).copied().unwrap_or('r') == 'l' {
                     line.push_str(cell);
                     if i + 1 < row.len() {
                         line.push_str(&" ".repeat(pad));
@@ -124,7 +125,7 @@ pub fn render(r: &Report, file: &str) -> String {
             eng(p.time_constant_s, "s"),
         ]);
     }
-    t.render(&mut out, "  ", 1);
+    t.render(&mut out, "  ", "lrrrrrrrr");
 
     let tr = &r.trip;
     heading(
@@ -229,7 +230,7 @@ pub fn render(r: &Report, file: &str) -> String {
             v.reason.clone(),
         ]);
     }
-    t.render(&mut out, "  ", 2);
+    t.render(&mut out, "  ", "llllll");
 
     if !r.drift.is_empty() {
         heading(&mut out, "Trip-point drift");
@@ -255,7 +256,7 @@ pub fn render(r: &Report, file: &str) -> String {
                 d.note.clone(),
             ]);
         }
-        t.render(&mut out, "  ", 1);
+        t.render(&mut out, "  ", "lrrrrrl");
     }
 
     if r.supply.idle_a > 0.0 {

@@ -1,0 +1,181 @@
+//! The operating-point solver against closed forms and independent
+//! evaluations, and its invariants (property tests).
+
+use draftwire::drive::Drive;
+use draftwire::element::{CoolingLaw, Element, Environment, KingsLaw, LinearTcr, ResistanceLaw};
+use draftwire::precision::ENERGY_BALANCE_REL_TOL;
+use draftwire::solve::{airflow_for_sense, operating_point, sense_at, sensitivity_v_per_m_per_s, SolveError};
+use proptest::prelude::*;
+
+fn element(r0: f64, t0: f64, alpha: f64, a: f64, b: f64, n: f64) -> Element {
+    Element::new(
+        ResistanceLaw::Linear(LinearTcr::new(r0, t0, alpha).unwrap()),
+        CoolingLaw::King(KingsLaw::new(a, b, n).unwrap()),
+        0.02,
+        None,
+    )
+    .unwrap()
+}
+
+/// Closed form for constant current, linear TCR and King's law:
+/// I²·R0·(1 + α(T − T0)) = G·(T − Ta) ⇒
+/// T − Ta = I²·R0·(1 + α(Ta − T0)) / (G − I²·R0·α)  (algebra, shown here).
+fn closed_form_rise(i: f64, r0: f64, t0: f64, alpha: f64, g: f64, ta: f64) -> f64 {
+    i * i * r0 * (1.0 + alpha * (ta - t0)) / (g - i * i * r0 * alpha)
+}
+
+#[test]
+fn constant_current_matches_closed_form() {
+    // Invented example values; the reference is the closed form above.
+    let (r0, t0, alpha, a, b, n) = (10.0, 293.15, 0.0045, 1.5e-3, 2.5e-3, 0.45);
+    let el = element(r0, t0, alpha, a, b, n);
+    let env = Environment::at(295.15);
+    for &i in &[0.01, 0.05, 0.1, 0.15] {
+        for &u in &[0.0, 0.1, 0.5, 2.0, 10.0] {
+            let drive = Drive::ConstantCurrent { current_a: i };
+            let g = a + b * f64::powf(u, n);
+            if g <= i * i * r0 * alpha {
+                continue;
+            }
+            let p = operating_point(&el, &drive, &env, u).unwrap();
+            let want = closed_form_rise(i, r0, t0, alpha, g, env.ambient_k);
+            assert!(
+                (p.rise_k() - want).abs() <= 1e-9 * want.max(1.0),
+                "I = {i} A, U = {u} m/s: solver {} K, closed form {want} K",
+                p.rise_k()
+            );
+            assert!(p.balance_residual() <= ENERGY_BALANCE_REL_TOL);
+            assert_eq!(p.roots.found(), 1);
+        }
+    }
+}
+
+#[test]
+fn constant_current_runaway_is_diagnosed() {
+    // Closed form: runaway when G ≤ I²·R0·α. Here G(0) = 1.5 mW/K and
+    // I²·R0·α = 0.2²·10·0.0045 = 1.8 mW/K, so still air runs away …
+    let el = element(10.0, 293.15, 0.0045, 1.5e-3, 2.5e-3, 0.45);
+    let env = Environment::at(293.15);
+    let drive = Drive::ConstantCurrent { current_a: 0.2 };
+    match operating_point(&el, &drive, &env, 0.0) {
+        Err(SolveError::Runaway { power_w, loss_w, .. }) => assert!(power_w > loss_w),
+        other => panic!("expected runaway, got {other:?}"),
+    }
+    // … while at 1 m/s G = 4.0 mW/K > 1.8 mW/K, so a steady point exists.
+    let p = operating_point(&el, &drive, &env, 1.0).unwrap();
+    let want = closed_form_rise(0.2, 10.0, 293.15, 0.0045, 4.0e-3, 293.15);
+    assert!((p.rise_k() - want).abs() <= 1e-9 * want);
+}
+
+/// Independent evaluation of the series-resistor balance: with
+/// R_a = R0·(1 + α(Ta − T0)), T − Ta = (R − R_a)/(α·R0), so the balance
+/// V²R/(Rs + R)² = G·(R − R_a)/(α·R0) is a cubic in R,
+/// c(R) = G·(R − R_a)·(Rs + R)² − α·R0·V²·R, solved here by plain bisection.
+fn series_balance_resistance(v: f64, rs: f64, r0: f64, t0: f64, alpha: f64, g: f64, ta: f64) -> f64 {
+    let ra = r0 * (1.0 + alpha * (ta - t0));
+    let c = |r: f64| g * (r - ra) * (rs + r) * (rs + r) - alpha * r0 * v * v * r;
+    let (mut lo, mut hi) = (ra, ra);
+    while c(hi) <= 0.0 {
+        hi = hi * 2.0 + 1.0;
+    }
+    for _ in 0..200 {
+        let mid = 0.5 * (lo + hi);
+        if c(mid) <= 0.0 {
+            lo = mid;
+        } else {
+            hi = mid;
+        }
+    }
+    0.5 * (lo + hi)
+}
+
+#[test]
+fn series_resistor_drive_matches_independent_balance() {
+    // Invented example values; reference: the cubic above, by bisection.
+    let (r0, t0, alpha, a, b, n) = (8.0, 293.15, 0.006, 1.2e-3, 2.4e-3, 0.45);
+    let el = element(r0, t0, alpha, a, b, n);
+    for &(v, rs, ta) in &[(5.0, 51.0, 295.15), (12.0, 150.0, 278.15), (3.3, 22.0, 313.15)] {
+        let env = Environment::at(ta);
+        let drive = Drive::SeriesResistor { rail_v: v, series_ohm: rs };
+        for &u in &[0.0, 0.25, 0.5, 1.0, 5.0] {
+            let g = a + b * f64::powf(u, n);
+            let want_r = series_balance_resistance(v, rs, r0, t0, alpha, g, ta);
+            let p = operating_point(&el, &drive, &env, u).unwrap();
+            assert!(
+                (p.resistance_ohm - want_r).abs() <= 1e-9 * want_r,
+                "V = {v}, Rs = {rs}, U = {u}: solver {} ohm, independent {want_r} ohm",
+                p.resistance_ohm
+            );
+            assert!(p.balance_residual() <= ENERGY_BALANCE_REL_TOL);
+        }
+    }
+}
+
+#[test]
+fn time_constant_is_heat_capacity_over_net_conductance() {
+    // Lumped capacitance (Incropera 6th ed. §5.2): with constant current the
+    // net conductance is G − I²·R0·α, so τ = C/(G − I²R0α).
+    let el = element(10.0, 293.15, 0.0045, 1.5e-3, 2.5e-3, 0.45);
+    let drive = Drive::ConstantCurrent { current_a: 0.1 };
+    let p = operating_point(&el, &drive, &Environment::at(293.15), 0.0).unwrap();
+    let want = 0.02 / (1.5e-3 - 0.01 * 10.0 * 0.0045);
+    assert!((p.time_constant_s - want).abs() <= 1e-12 * want);
+}
+
+#[test]
+fn sensitivity_matches_finite_difference() {
+    // Invariant: the implicit-function derivative equals a central
+    // difference of the solved sense voltage.
+    let el = element(8.0, 293.15, 0.006, 1.2e-3, 2.4e-3, 0.45);
+    let env = Environment::at(295.15);
+    let drive = Drive::SeriesResistor { rail_v: 5.0, series_ohm: 51.0 };
+    let u = 0.5;
+    let p = operating_point(&el, &drive, &env, u).unwrap();
+    let s = sensitivity_v_per_m_per_s(&el, &drive, &env, &p);
+    let h = 1e-5;
+    let fd = (sense_at(&el, &drive, &env, u + h).unwrap() - sense_at(&el, &drive, &env, u - h).unwrap()) / (2.0 * h);
+    assert!((s - fd).abs() <= 1e-6 * fd.abs(), "analytic {s}, finite difference {fd}");
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(200))]
+
+    /// For valid inputs every output is finite; more airflow never raises
+    /// the element temperature; the trip airflow found reproduces the
+    /// reference voltage.
+    #[test]
+    fn solver_invariants(
+        r0 in 1.0f64..200.0,
+        alpha in 0.001f64..0.007,
+        a in 2e-4f64..5e-3,
+        b in 2e-4f64..1e-2,
+        n in 0.3f64..0.7,
+        ta in 263.15f64..323.15,
+        rail in 3.0f64..24.0,
+        rs_factor in 1.0f64..20.0,
+        u1 in 0.0f64..5.0,
+        du in 0.001f64..5.0,
+    ) {
+        let el = element(r0, 293.15, alpha, a, b, n);
+        let env = Environment::at(ta);
+        let drive = Drive::SeriesResistor { rail_v: rail, series_ohm: r0 * rs_factor };
+        let p1 = operating_point(&el, &drive, &env, u1);
+        let p2 = operating_point(&el, &drive, &env, u1 + du);
+        if let (Ok(p1), Ok(p2)) = (p1, p2) {
+            for p in [&p1, &p2] {
+                prop_assert!(p.temperature_k.is_finite() && p.resistance_ohm.is_finite());
+                prop_assert!(p.current_a.is_finite() && p.power_w.is_finite() && p.sense_v.is_finite());
+                prop_assert!(p.time_constant_s.is_finite() && p.time_constant_s > 0.0);
+                prop_assert!(p.balance_residual() <= ENERGY_BALANCE_REL_TOL);
+            }
+            prop_assert!(p2.temperature_k <= p1.temperature_k + 1e-9);
+            // Trip airflow for the sense level at u1 + du reproduces it.
+            let level = p2.sense_v;
+            if (p1.sense_v - level).abs() > 1e-9 {
+                let u = airflow_for_sense(&el, &drive, &env, level, u1 + du).unwrap();
+                let back = sense_at(&el, &drive, &env, u).unwrap();
+                prop_assert!((back - level).abs() <= 1e-9 * level.abs().max(1e-3));
+            }
+        }
+    }
+}
