@@ -1,3 +1,39 @@
+//! Speed of the two solves that later tolerance runs repeat millions of
+//! times: one operating point, one trip airflow. Run with `cargo bench`.
+
+use divan::black_box;
+use draftwire::drive::Drive;
+use draftwire::element::{CoolingLaw, Element, Environment, KingsLaw, LinearTcr, ResistanceLaw};
+use draftwire::solve::{airflow_for_sense, operating_point};
+
 fn main() {
     divan::main();
+}
+
+/// Invented example element: 8 Ω nickel-like wire, King's law.
+fn element() -> Element {
+    Element::new(
+        ResistanceLaw::Linear(LinearTcr::new(8.0, 293.15, 0.006).unwrap()),
+        CoolingLaw::King(KingsLaw::new(1.2e-3, 2.4e-3, 0.45).unwrap()),
+        0.03,
+        None,
+    )
+    .unwrap()
+}
+
+#[divan::bench]
+fn operating_point_solve(bencher: divan::Bencher) {
+    let el = element();
+    let env = Environment::at(295.15);
+    let drive = Drive::SeriesResistor { rail_v: 5.0, series_ohm: 51.0 };
+    bencher.bench(|| operating_point(black_box(&el), black_box(&drive), black_box(&env), black_box(0.5)).unwrap());
+}
+
+#[divan::bench]
+fn trip_airflow_solve(bencher: divan::Bencher) {
+    let el = element();
+    let env = Environment::at(295.15);
+    let drive = Drive::SeriesResistor { rail_v: 5.0, series_ohm: 51.0 };
+    let level = operating_point(&el, &drive, &env, 0.5).unwrap().sense_v;
+    bencher.bench(|| airflow_for_sense(black_box(&el), black_box(&drive), black_box(&env), black_box(level), 0.4).unwrap());
 }

@@ -477,9 +477,9 @@ impl<'a> Reader<'a> {
         self.positive(v, field, dim).map(Sizable::Fixed)
     }
 
-    pub(crate) fn word<'w>(
+    pub(crate) fn word(
         &self,
-        w: &'w Word,
+        w: &Word,
         field: &str,
         choices: &[&'static str],
     ) -> R<&'static str> {
@@ -919,7 +919,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
             Scalar::Text(s) if s.trim().eq_ignore_ascii_case("none") => HysteresisSpec::None,
             Scalar::Text(s) => {
                 if let Ok(u) = parse_quantity(s, Dimension::Velocity) {
-                    if !(u > 0.0) {
+                    if u <= 0.0 {
                         return Err(rd.err(Some(v.span()), "detector.hysteresis", format!("expected a band above 0 m/s, found {u} m/s")));
                     }
                     HysteresisSpec::Airflow(u)

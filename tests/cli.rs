@@ -1,0 +1,221 @@
+//! The `draftwire` binary run as a process: every example in text and JSON,
+//! and bad inputs with their messages and exit status.
+
+use assert_cmd::Command;
+use predicates::prelude::*;
+use std::path::{Path, PathBuf};
+
+fn draftwire() -> Command {
+    let mut c = Command::cargo_bin("draftwire").unwrap();
+    c.env_remove("RUST_BACKTRACE");
+    c
+}
+
+fn examples() -> Vec<PathBuf> {
+    let mut v: Vec<PathBuf> = std::fs::read_dir(Path::new(env!("CARGO_MANIFEST_DIR")).join("examples"))
+        .unwrap()
+        .map(|e| e.unwrap().path())
+        .filter(|p| p.extension().is_some_and(|e| e == "toml"))
+        .collect();
+    v.sort();
+    v
+}
+
+/// A per-test scratch directory holding one design file.
+fn write_design(test: &str, text: &str) -> PathBuf {
+    let dir = std::env::temp_dir().join(format!("draftwire-cli-{}-{test}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    let path = dir.join("design.toml");
+    std::fs::write(&path, text).unwrap();
+    path
+}
+
+fn greenhouse() -> String {
+    std::fs::read_to_string(Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/greenhouse-fan-alarm.toml")).unwrap()
+}
+
+#[test]
+fn every_example_sizes_in_text() {
+    let all = examples();
+    assert!(all.len() >= 2, "at least two bundled examples");
+    for ex in all {
+        let out = draftwire().arg("size").arg(&ex).output().unwrap();
+        let code = out.status.code().unwrap();
+        assert!(code == 0 || code == 1, "{}: exit {code}: {}", ex.display(), String::from_utf8_lossy(&out.stderr));
+        let text = String::from_utf8(out.stdout).unwrap();
+        for section in ["Element operating points", "Trip point", "Bill of values", "Checks", "Cautions"] {
+            assert!(text.contains(section), "{}: no '{section}' section", ex.display());
+        }
+        assert!(text.contains("flammable"), "ignition caution always shown");
+        assert!(!text.contains("NaN") && !text.contains("inf "), "{}: non-finite number printed", ex.display());
+        assert_eq!(code == 0, text.contains("PASS"), "{}: exit status agrees with the verdict", ex.display());
+    }
+}
+
+#[test]
+fn every_example_sizes_in_json_with_units_in_keys() {
+    for ex in examples() {
+        let out = draftwire().args(["size", "--format", "json"]).arg(&ex).output().unwrap();
+        let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+        let points = v["operating_points"].as_array().unwrap();
+        assert_eq!(points.len(), 4, "still air, ½·trip, trip, 2·trip");
+        for key in [
+            "airflow_m_per_s",
+            "element_temperature_c",
+            "element_resistance_ohm",
+            "element_current_a",
+            "element_power_w",
+            "sense_voltage_v",
+            "overheat_ratio",
+        ] {
+            assert!(points[0][key].is_number(), "{}: operating_points[0].{key}", ex.display());
+        }
+        for key in ["airflow_m_per_s", "reference_voltage_v", "sensitivity_v_per_m_per_s"] {
+            assert!(v["trip"][key].is_number(), "{}: trip.{key}", ex.display());
+        }
+        for row in v["values"].as_array().unwrap() {
+            assert!(row["designator"].is_string() && row["part"].is_string() && row["text"].is_string());
+            assert!(row["e_series"].is_string());
+            let has_value = ["value_ohm", "value_a", "value_f", "value_v"].iter().any(|k| row[k].is_number());
+            assert!(has_value || row["part"].as_str().unwrap().contains("transistor") || row["part"].as_str().unwrap().contains("comparator") || row["part"].as_str().unwrap().contains("regulator") || row["part"].as_str().unwrap().contains("LED") || row["part"].as_str().unwrap().contains("diode"), "{}: value row {row}", ex.display());
+        }
+        for c in v["checks"].as_array().unwrap() {
+            assert!(c["name"].is_string() && c["passed"].is_boolean() && c["detail"].is_string());
+        }
+        assert!(!v["cautions"].as_array().unwrap().is_empty());
+        let passed = v["checks"].as_array().unwrap().iter().all(|c| c["passed"].as_bool().unwrap());
+        assert_eq!(out.status.code().unwrap(), if passed { 0 } else { 1 });
+    }
+}
+
+#[test]
+fn csv_tables_have_headers() {
+    let ex = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/greenhouse-fan-alarm.toml");
+    for (table, header) in [
+        ("values", "designator,part,value_ohm"),
+        ("operating-points", "label,airflow_m_per_s"),
+        ("checks", "name,passed,detail"),
+        ("drift", "condition,ambient_c"),
+    ] {
+        draftwire()
+            .args(["size", "--format", "csv", "--table", table])
+            .arg(&ex)
+            .assert()
+            .stdout(predicate::str::starts_with(header));
+    }
+}
+
+#[test]
+fn missing_unit_is_an_input_error_pointing_at_the_value() {
+    let text = greenhouse().replace("r0 = \"8 ohm\"", "r0 = \"8\"");
+    let path = write_design("missing-unit", &text);
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("element.resistance.r0"))
+        .stderr(predicate::str::contains("missing unit"))
+        .stderr(predicate::str::contains("r0 = \"8\""))
+        .stderr(predicate::str::contains("^^^"));
+}
+
+#[test]
+fn bare_number_is_a_missing_unit() {
+    let text = greenhouse().replace("input = \"12 V\"", "input = 12");
+    let path = write_design("bare-number", &text);
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("supply.input"))
+        .stderr(predicate::str::contains("missing unit"));
+}
+
+#[test]
+fn wrong_unit_names_both_dimensions() {
+    let text = greenhouse().replace("r0 = \"8 ohm\"", "r0 = \"8 V\"");
+    let path = write_design("wrong-unit", &text);
+    let line = text.lines().position(|l| l.starts_with("r0 =")).unwrap() + 1;
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains(format!("design.toml:{line}:6")))
+        .stderr(predicate::str::contains("voltage"))
+        .stderr(predicate::str::contains("resistance"));
+}
+
+#[test]
+fn unknown_key_gets_a_did_you_mean() {
+    let text = greenhouse().replace("series = \"auto\"", "serie = \"auto\"");
+    let path = write_design("unknown-key", &text);
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("unknown field `serie`"))
+        .stderr(predicate::str::contains("did you mean `series`?"));
+}
+
+#[test]
+fn unknown_word_gets_a_did_you_mean() {
+    let text = greenhouse().replace("trip_on = \"falling\"", "trip_on = \"faling\"");
+    let path = write_design("unknown-word", &text);
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("detector.trip_on"))
+        .stderr(predicate::str::contains("did you mean \"falling\"?"));
+}
+
+#[test]
+fn malformed_toml_is_an_input_error_with_position() {
+    let text = greenhouse().replace("nominal = \"22 degC\"", "nominal = \"22 degC");
+    let path = write_design("malformed", &text);
+    draftwire().arg("size").arg(&path).assert().code(2).stderr(predicate::str::contains("design.toml:"));
+}
+
+#[test]
+fn missing_file_is_an_input_error() {
+    draftwire()
+        .args(["size", "no/such/design.toml"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("cannot read design file no/such/design.toml"));
+}
+
+#[test]
+fn rail_too_low_is_a_design_failure() {
+    // Asking for 1500 K of overheat from a 5 V rail cannot be met.
+    let text = greenhouse().replace("overheat_rise = \"60 K\"", "overheat_rise = \"1500 K\"");
+    let path = write_design("rail-too-low", &text);
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(1)
+        .stderr(predicate::str::contains("cannot drive the element to the wanted overheat"));
+}
+
+#[test]
+fn closed_pipe_is_not_an_error() {
+    // `draftwire … | head` must not panic: write to a pipe nobody reads.
+    let ex = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/greenhouse-fan-alarm.toml");
+    let out = std::process::Command::new(assert_cmd::cargo::cargo_bin("draftwire"))
+        .arg("size")
+        .arg(&ex)
+        .stdout(std::process::Stdio::piped())
+        .spawn()
+        .and_then(|mut child| {
+            drop(child.stdout.take());
+            child.wait_with_output()
+        })
+        .unwrap();
+    assert!(!String::from_utf8_lossy(&out.stderr).contains("panicked"));
+}
