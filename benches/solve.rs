@@ -25,15 +25,38 @@ fn element() -> Element {
 fn operating_point_solve(bencher: divan::Bencher) {
     let el = element();
     let env = Environment::at(295.15);
-    let drive = Drive::SeriesResistor { rail_v: 5.0, series_ohm: 51.0 };
-    bencher.bench(|| operating_point(black_box(&el), black_box(&drive), black_box(&env), black_box(0.5)).unwrap());
+    let drive = Drive::SeriesResistor {
+        rail_v: 5.0,
+        series_ohm: 51.0,
+    };
+    bencher.bench(|| {
+        operating_point(
+            black_box(&el),
+            black_box(&drive),
+            black_box(&env),
+            black_box(0.5),
+        )
+        .unwrap()
+    });
 }
 
 #[divan::bench]
 fn trip_airflow_solve(bencher: divan::Bencher) {
     let el = element();
     let env = Environment::at(295.15);
-    let drive = Drive::SeriesResistor { rail_v: 5.0, series_ohm: 51.0 };
+    let drive = Drive::SeriesResistor {
+        rail_v: 5.0,
+        series_ohm: 51.0,
+    };
     let level = operating_point(&el, &drive, &env, 0.5).unwrap().sense_v;
-    bencher.bench(|| airflow_for_sense(black_box(&el), black_box(&drive), black_box(&env), black_box(level), 0.4).unwrap());
+    bencher.bench(|| {
+        airflow_for_sense(
+            black_box(&el),
+            black_box(&drive),
+            black_box(&env),
+            black_box(level),
+            0.4,
+        )
+        .unwrap()
+    });
 }

@@ -43,6 +43,8 @@ pub struct TripSummary {
     pub reference_voltage_v: f64,
     /// Sense voltage at the trip airflow, V.
     pub sense_voltage_v: f64,
+    /// Sense voltage at the release airflow, V.
+    pub release_sense_voltage_v: f64,
     /// dV/dU at the trip airflow, V per m/s.
     pub sensitivity_v_per_m_per_s: f64,
     /// Trimmer setting, % of travel from its grounded end.

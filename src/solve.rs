@@ -346,7 +346,11 @@ pub fn airflow_for_sense(
     let mut bracket: Option<(f64, f64)> = None;
     // Walk down.
     for k in 1..=SEARCH_HALVINGS + 1 {
-        let u = if k > SEARCH_HALVINGS { 0.0 } else { start / f64::powi(2.0, k as i32) };
+        let u = if k > SEARCH_HALVINGS {
+            0.0
+        } else {
+            start / f64::powi(2.0, k as i32)
+        };
         match g(u) {
             Ok(v) => {
                 if v == 0.0 {

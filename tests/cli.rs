@@ -12,11 +12,12 @@ fn draftwire() -> Command {
 }
 
 fn examples() -> Vec<PathBuf> {
-    let mut v: Vec<PathBuf> = std::fs::read_dir(Path::new(env!("CARGO_MANIFEST_DIR")).join("examples"))
-        .unwrap()
-        .map(|e| e.unwrap().path())
-        .filter(|p| p.extension().is_some_and(|e| e == "toml"))
-        .collect();
+    let mut v: Vec<PathBuf> =
+        std::fs::read_dir(Path::new(env!("CARGO_MANIFEST_DIR")).join("examples"))
+            .unwrap()
+            .map(|e| e.unwrap().path())
+            .filter(|p| p.extension().is_some_and(|e| e == "toml"))
+            .collect();
     v.sort();
     v
 }
@@ -31,7 +32,10 @@ fn write_design(test: &str, text: &str) -> PathBuf {
 }
 
 fn greenhouse() -> String {
-    std::fs::read_to_string(Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/greenhouse-fan-alarm.toml")).unwrap()
+    std::fs::read_to_string(
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/greenhouse-fan-alarm.toml"),
+    )
+    .unwrap()
 }
 
 #[test]
@@ -41,21 +45,49 @@ fn every_example_sizes_in_text() {
     for ex in all {
         let out = draftwire().arg("size").arg(&ex).output().unwrap();
         let code = out.status.code().unwrap();
-        assert!(code == 0 || code == 1, "{}: exit {code}: {}", ex.display(), String::from_utf8_lossy(&out.stderr));
+        assert!(
+            code == 0 || code == 1,
+            "{}: exit {code}: {}",
+            ex.display(),
+            String::from_utf8_lossy(&out.stderr)
+        );
         let text = String::from_utf8(out.stdout).unwrap();
-        for section in ["Element operating points", "Trip point", "Bill of values", "Checks", "Cautions"] {
-            assert!(text.contains(section), "{}: no '{section}' section", ex.display());
+        for section in [
+            "Element operating points",
+            "Trip point",
+            "Bill of values",
+            "Checks",
+            "Cautions",
+        ] {
+            assert!(
+                text.contains(section),
+                "{}: no '{section}' section",
+                ex.display()
+            );
         }
         assert!(text.contains("flammable"), "ignition caution always shown");
-        assert!(!text.contains("NaN") && !text.contains("inf "), "{}: non-finite number printed", ex.display());
-        assert_eq!(code == 0, text.contains("PASS"), "{}: exit status agrees with the verdict", ex.display());
+        assert!(
+            !text.contains("NaN") && !text.contains("inf "),
+            "{}: non-finite number printed",
+            ex.display()
+        );
+        assert_eq!(
+            code == 0,
+            text.contains("PASS"),
+            "{}: exit status agrees with the verdict",
+            ex.display()
+        );
     }
 }
 
 #[test]
 fn every_example_sizes_in_json_with_units_in_keys() {
     for ex in examples() {
-        let out = draftwire().args(["size", "--format", "json"]).arg(&ex).output().unwrap();
+        let out = draftwire()
+            .args(["size", "--format", "json"])
+            .arg(&ex)
+            .output()
+            .unwrap();
         let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
         let points = v["operating_points"].as_array().unwrap();
         assert_eq!(points.len(), 4, "still air, ½·trip, trip, 2·trip");
@@ -68,22 +100,47 @@ fn every_example_sizes_in_json_with_units_in_keys() {
             "sense_voltage_v",
             "overheat_ratio",
         ] {
-            assert!(points[0][key].is_number(), "{}: operating_points[0].{key}", ex.display());
+            assert!(
+                points[0][key].is_number(),
+                "{}: operating_points[0].{key}",
+                ex.display()
+            );
         }
-        for key in ["airflow_m_per_s", "reference_voltage_v", "sensitivity_v_per_m_per_s"] {
+        for key in [
+            "airflow_m_per_s",
+            "reference_voltage_v",
+            "sensitivity_v_per_m_per_s",
+        ] {
             assert!(v["trip"][key].is_number(), "{}: trip.{key}", ex.display());
         }
         for row in v["values"].as_array().unwrap() {
-            assert!(row["designator"].is_string() && row["part"].is_string() && row["text"].is_string());
+            assert!(
+                row["designator"].is_string() && row["part"].is_string() && row["text"].is_string()
+            );
             assert!(row["e_series"].is_string());
-            let has_value = ["value_ohm", "value_a", "value_f", "value_v"].iter().any(|k| row[k].is_number());
-            assert!(has_value || row["part"].as_str().unwrap().contains("transistor") || row["part"].as_str().unwrap().contains("comparator") || row["part"].as_str().unwrap().contains("regulator") || row["part"].as_str().unwrap().contains("LED") || row["part"].as_str().unwrap().contains("diode"), "{}: value row {row}", ex.display());
+            let has_value = ["value_ohm", "value_a", "value_f", "value_v"]
+                .iter()
+                .any(|k| row[k].is_number());
+            assert!(
+                has_value
+                    || row["part"].as_str().unwrap().contains("transistor")
+                    || row["part"].as_str().unwrap().contains("comparator")
+                    || row["part"].as_str().unwrap().contains("regulator")
+                    || row["part"].as_str().unwrap().contains("LED")
+                    || row["part"].as_str().unwrap().contains("diode"),
+                "{}: value row {row}",
+                ex.display()
+            );
         }
         for c in v["checks"].as_array().unwrap() {
             assert!(c["name"].is_string() && c["passed"].is_boolean() && c["detail"].is_string());
         }
         assert!(!v["cautions"].as_array().unwrap().is_empty());
-        let passed = v["checks"].as_array().unwrap().iter().all(|c| c["passed"].as_bool().unwrap());
+        let passed = v["checks"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .all(|c| c["passed"].as_bool().unwrap());
         assert_eq!(out.status.code().unwrap(), if passed { 0 } else { 1 });
     }
 }
@@ -178,7 +235,12 @@ fn unknown_word_gets_a_did_you_mean() {
 fn malformed_toml_is_an_input_error_with_position() {
     let text = greenhouse().replace("nominal = \"22 degC\"", "nominal = \"22 degC");
     let path = write_design("malformed", &text);
-    draftwire().arg("size").arg(&path).assert().code(2).stderr(predicate::str::contains("design.toml:"));
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("design.toml:"));
 }
 
 #[test]
@@ -187,7 +249,9 @@ fn missing_file_is_an_input_error() {
         .args(["size", "no/such/design.toml"])
         .assert()
         .code(2)
-        .stderr(predicate::str::contains("cannot read design file no/such/design.toml"));
+        .stderr(predicate::str::contains(
+            "cannot read design file no/such/design.toml",
+        ));
 }
 
 #[test]
@@ -200,7 +264,9 @@ fn rail_too_low_is_a_design_failure() {
         .arg(&path)
         .assert()
         .code(1)
-        .stderr(predicate::str::contains("cannot drive the element to the wanted overheat"));
+        .stderr(predicate::str::contains(
+            "cannot drive the element to the wanted overheat",
+        ));
 }
 
 #[test]

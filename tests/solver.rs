@@ -4,7 +4,9 @@
 use draftwire::drive::Drive;
 use draftwire::element::{CoolingLaw, Element, Environment, KingsLaw, LinearTcr, ResistanceLaw};
 use draftwire::precision::ENERGY_BALANCE_REL_TOL;
-use draftwire::solve::{airflow_for_sense, operating_point, sense_at, sensitivity_v_per_m_per_s, SolveError};
+use draftwire::solve::{
+    airflow_for_sense, operating_point, sense_at, sensitivity_v_per_m_per_s, SolveError,
+};
 use proptest::prelude::*;
 
 fn element(r0: f64, t0: f64, alpha: f64, a: f64, b: f64, n: f64) -> Element {
@@ -58,7 +60,9 @@ fn constant_current_runaway_is_diagnosed() {
     let env = Environment::at(293.15);
     let drive = Drive::ConstantCurrent { current_a: 0.2 };
     match operating_point(&el, &drive, &env, 0.0) {
-        Err(SolveError::Runaway { power_w, loss_w, .. }) => assert!(power_w > loss_w),
+        Err(SolveError::Runaway {
+            power_w, loss_w, ..
+        }) => assert!(power_w > loss_w),
         other => panic!("expected runaway, got {other:?}"),
     }
     // … while at 1 m/s G = 4.0 mW/K > 1.8 mW/K, so a steady point exists.
@@ -71,7 +75,15 @@ fn constant_current_runaway_is_diagnosed() {
 /// R_a = R0·(1 + α(Ta − T0)), T − Ta = (R − R_a)/(α·R0), so the balance
 /// V²R/(Rs + R)² = G·(R − R_a)/(α·R0) is a cubic in R,
 /// c(R) = G·(R − R_a)·(Rs + R)² − α·R0·V²·R, solved here by plain bisection.
-fn series_balance_resistance(v: f64, rs: f64, r0: f64, t0: f64, alpha: f64, g: f64, ta: f64) -> f64 {
+fn series_balance_resistance(
+    v: f64,
+    rs: f64,
+    r0: f64,
+    t0: f64,
+    alpha: f64,
+    g: f64,
+    ta: f64,
+) -> f64 {
     let ra = r0 * (1.0 + alpha * (ta - t0));
     let c = |r: f64| g * (r - ra) * (rs + r) * (rs + r) - alpha * r0 * v * v * r;
     let (mut lo, mut hi) = (ra, ra);
@@ -94,9 +106,16 @@ fn series_resistor_drive_matches_independent_balance() {
     // Invented example values; reference: the cubic above, by bisection.
     let (r0, t0, alpha, a, b, n) = (8.0, 293.15, 0.006, 1.2e-3, 2.4e-3, 0.45);
     let el = element(r0, t0, alpha, a, b, n);
-    for &(v, rs, ta) in &[(5.0, 51.0, 295.15), (12.0, 150.0, 278.15), (3.3, 22.0, 313.15)] {
+    for &(v, rs, ta) in &[
+        (5.0, 51.0, 295.15),
+        (12.0, 150.0, 278.15),
+        (3.3, 22.0, 313.15),
+    ] {
         let env = Environment::at(ta);
-        let drive = Drive::SeriesResistor { rail_v: v, series_ohm: rs };
+        let drive = Drive::SeriesResistor {
+            rail_v: v,
+            series_ohm: rs,
+        };
         for &u in &[0.0, 0.25, 0.5, 1.0, 5.0] {
             let g = a + b * f64::powf(u, n);
             let want_r = series_balance_resistance(v, rs, r0, t0, alpha, g, ta);
@@ -128,13 +147,21 @@ fn sensitivity_matches_finite_difference() {
     // difference of the solved sense voltage.
     let el = element(8.0, 293.15, 0.006, 1.2e-3, 2.4e-3, 0.45);
     let env = Environment::at(295.15);
-    let drive = Drive::SeriesResistor { rail_v: 5.0, series_ohm: 51.0 };
+    let drive = Drive::SeriesResistor {
+        rail_v: 5.0,
+        series_ohm: 51.0,
+    };
     let u = 0.5;
     let p = operating_point(&el, &drive, &env, u).unwrap();
     let s = sensitivity_v_per_m_per_s(&el, &drive, &env, &p);
     let h = 1e-5;
-    let fd = (sense_at(&el, &drive, &env, u + h).unwrap() - sense_at(&el, &drive, &env, u - h).unwrap()) / (2.0 * h);
-    assert!((s - fd).abs() <= 1e-6 * fd.abs(), "analytic {s}, finite difference {fd}");
+    let fd = (sense_at(&el, &drive, &env, u + h).unwrap()
+        - sense_at(&el, &drive, &env, u - h).unwrap())
+        / (2.0 * h);
+    assert!(
+        (s - fd).abs() <= 1e-6 * fd.abs(),
+        "analytic {s}, finite difference {fd}"
+    );
 }
 
 proptest! {

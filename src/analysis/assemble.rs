@@ -85,8 +85,17 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
         target_airflow_m_per_s: u_t,
         airflow_m_per_s: core.trip_airflow_m_per_s,
         release_airflow_m_per_s: core.release_airflow_m_per_s,
-        reference_voltage_v: fe.divider.thevenin(fe.reference_rail_v, x).0,
+        reference_voltage_v: {
+            // What a meter on the reference input reads with the output idle
+            // and the airflow at the trip point.
+            let (vp, vn) = fe.input_voltages(core.at_trip.sense_v, x, core.idle_state, src);
+            match fe.arrangement {
+                Arrangement::ReferenceOnNonInverting => vp,
+                Arrangement::SenseOnNonInverting => vn,
+            }
+        },
         sense_voltage_v: core.at_trip.sense_v,
+        release_sense_voltage_v: fe.switching_sense_v(x, core.idle_state.other(), src),
         sensitivity_v_per_m_per_s: sens,
         trimmer_position_percent: 100.0 * x,
         airflow_at_trimmer_bottom_m_per_s: at(0.0),

@@ -453,11 +453,11 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
     if front.feedback_ohm.is_some() {
         notes.push(match arrangement {
             Arrangement::ReferenceOnNonInverting => format!(
-                "feedback goes into the reference node: its source resistance ({:.0} ohm at mid-travel) lets the output move it, while the sense node ({:.1} ohm) is too stiff to move",
+                "feedback goes into the reference node: its source resistance ({:.0} Ω at mid-travel) lets the output move it, while the sense node ({:.1} Ω) is too stiff to move",
                 divider.thevenin(ref_rail_v, 0.5).1, sense_src
             ),
             Arrangement::SenseOnNonInverting => format!(
-                "the sense node ({:.1} ohm) is too stiff for feedback, so it reaches the non-inverting input through a {} series resistor, and the feedback acts on that side",
+                "the sense node ({:.1} Ω) is too stiff for feedback, so it reaches the non-inverting input through a {} series resistor, and the feedback acts on that side",
                 sense_src, format_rkm(input_ohm)
             ),
         });

@@ -178,4 +178,50 @@ mod tests {
             assert!((vp - vn).abs() < 1e-12);
         }
     }
+
+    #[test]
+    fn agrees_with_the_published_feedback_equations() {
+        // Reference: the open-drain hysteresis equations as implemented and
+        // checked against the Analog Devices comparator data sheet (Rev. D,
+        // p. 10) and the ABLIC worked example in circuit::hysteresis. Both
+        // placements of the feedback must give the same switching levels.
+        use crate::circuit::hysteresis::FeedbackNetwork;
+        let divider = Divider {
+            top_ohm: 47e3,
+            trimmer_ohm: 5e3,
+            bottom_ohm: 6.2e3,
+        };
+        let (x, rail, rf, rpu, vol, src) = (0.525, 5.0, 12e6, 10e3, 0.4, 7.7);
+        let base = FrontEnd {
+            arrangement: Arrangement::SenseOnNonInverting,
+            divider,
+            reference_rail_v: rail,
+            feedback_ohm: Some(rf),
+            input_ohm: 10e3,
+            output_high: (rail, rpu),
+            output_low_v: vol,
+        };
+        let (v_th, r_th) = divider.thevenin(rail, x);
+        // Sense side: thresholds of the source against the reference.
+        let net = FeedbackNetwork::new(0.0, src + 10e3, rf, rpu, rail, vol).unwrap();
+        let (vs_high, vs_low) = net.source_thresholds(v_th);
+        assert!((base.switching_sense_v(x, OutputState::High, src) - vs_high).abs() < 1e-12);
+        assert!((base.switching_sense_v(x, OutputState::Low, src) - vs_low).abs() < 1e-12);
+        // Reference side: the sense trips at the reference node's two levels.
+        let fe = FrontEnd {
+            arrangement: Arrangement::ReferenceOnNonInverting,
+            input_ohm: 0.0,
+            ..base
+        };
+        let net = FeedbackNetwork::new(v_th, r_th, rf, rpu, rail, vol).unwrap();
+        assert!(
+            (fe.switching_sense_v(x, OutputState::High, src) - net.node_voltage_output_high())
+                .abs()
+                < 1e-12
+        );
+        assert!(
+            (fe.switching_sense_v(x, OutputState::Low, src) - net.node_voltage_output_low()).abs()
+                < 1e-12
+        );
+    }
 }

@@ -477,12 +477,7 @@ impl<'a> Reader<'a> {
         self.positive(v, field, dim).map(Sizable::Fixed)
     }
 
-    pub(crate) fn word(
-        &self,
-        w: &Word,
-        field: &str,
-        choices: &[&'static str],
-    ) -> R<&'static str> {
+    pub(crate) fn word(&self, w: &Word, field: &str, choices: &[&'static str]) -> R<&'static str> {
         let text = w.get_ref().trim();
         if let Some(c) = choices.iter().find(|c| c.eq_ignore_ascii_case(text)) {
             return Ok(c);
