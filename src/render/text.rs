@@ -174,7 +174,7 @@ pub fn render(r: &Report, file: &str) -> String {
         ),
     );
     let ends =
-        |u: Option<f64>| u.map_or("beyond 0–100 m/s".to_string(), |u| format!("{u:.3} m/s"));
+        |u: Option<f64>| u.map_or("out of reach (0–100 m/s)".to_string(), |u| format!("{u:.3} m/s"));
     kv(
         &mut out,
         "trimmer range",
