@@ -31,6 +31,22 @@ fn write_design(test: &str, text: &str) -> PathBuf {
     path
 }
 
+/// Replace the value of the first line `key = …` in a design file's text.
+fn set_key(text: &str, key: &str, value: &str) -> String {
+    let mut done = false;
+    text.lines()
+        .map(|l| {
+            if !done && l.trim_start().starts_with(&format!("{key} =")) {
+                done = true;
+                format!("{key} = {value}")
+            } else {
+                l.to_string()
+            }
+        })
+        .collect::<Vec<_>>()
+        .join("\n")
+}
+
 fn greenhouse() -> String {
     std::fs::read_to_string(
         Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/greenhouse-fan-alarm.toml"),
@@ -257,7 +273,7 @@ fn missing_file_is_an_input_error() {
 #[test]
 fn rail_too_low_is_a_design_failure() {
     // Asking for 1500 K of overheat from a 5 V rail cannot be met.
-    let text = greenhouse().replace("overheat_rise = \"60 K\"", "overheat_rise = \"1500 K\"");
+    let text = set_key(&greenhouse(), "overheat_rise", "\"1500 K\"");
     let path = write_design("rail-too-low", &text);
     draftwire()
         .arg("size")
@@ -284,4 +300,32 @@ fn closed_pipe_is_not_an_error() {
         })
         .unwrap();
     assert!(!String::from_utf8_lossy(&out.stderr).contains("panicked"));
+}
+
+#[test]
+fn trimmer_that_cannot_reach_the_target_fails_the_design() {
+    // Fixed divider values whose wiper tops out near 1 % of the rail while
+    // the trip needs about 15 %: the trimmer cannot reach the target.
+    let text = greenhouse()
+        .replace("top = \"auto\"", "top = \"470K\"")
+        .replace("trimmer = \"auto\"", "trimmer = \"1K\"")
+        .replace("bottom = \"auto\"", "bottom = \"4K7\"");
+    let path = write_design("trimmer-cannot-reach", &text);
+    draftwire()
+        .arg("size")
+        .arg(&path)
+        .assert()
+        .code(1)
+        .stdout(predicate::str::contains("FAIL trimmer reaches the target"))
+        .stdout(predicate::str::contains("outside 0–100 %"));
+}
+
+#[test]
+fn given_trimmer_position_is_analysed_as_it_is() {
+    let text = greenhouse().replace("bottom = \"auto\"", "bottom = \"auto\"\ntrimmer_position = \"45 %\"");
+    let path = write_design("given-position", &text);
+    let out = draftwire().args(["size", "--format", "json"]).arg(&path).output().unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert!((v["trip"]["trimmer_position_percent"].as_f64().unwrap() - 45.0).abs() < 1e-9);
+    assert_ne!(v["trip"]["airflow_m_per_s"].as_f64().unwrap(), 0.5);
 }

@@ -464,7 +464,11 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
     }
 
     // Trimmer position that puts the trip point on target.
-    let x = trimmer_position(&front, idle_state, v_t, sense_src);
+    // A setting given in the file is analysed as it is; otherwise the one
+    // that puts the trip point on target.
+    let x = det
+        .trimmer_position
+        .unwrap_or_else(|| trimmer_position(&front, idle_state, v_t, sense_src));
     let trip_level = front.switching_sense_v(x, idle_state, sense_src);
     let release_level = front.switching_sense_v(x, idle_state.other(), sense_src);
     let trip_airflow = airflow_for_sense(&element, &drive, &env, trip_level, u_t)

@@ -107,23 +107,32 @@ pub struct RawRegulator {
     pub max_junction: Option<Value>,
 }
 
-/// `[element]`.
+/// `[element]` (and each `[[candidate]]` table of a candidates file).
 #[derive(Debug, Clone, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct RawElement {
     /// Free text description.
     pub name: Option<Word>,
-    /// Lumped heat capacity.
-    pub heat_capacity: Value,
+    /// Label of a `[[candidate]]` (rejected in a design's `[element]`).
+    pub label: Option<Word>,
+    /// Material preset (TCR, emissivity, heat capacity, limit in air).
+    pub material: Option<Word>,
+    /// Lumped heat capacity (optional when it can be derived).
+    pub heat_capacity: Option<Value>,
     /// Maximum safe temperature.
     pub max_temperature: Option<Value>,
     /// Tolerance of the element's resistance.
     pub tolerance: Option<Value>,
     /// `[element.resistance]`.
-    pub resistance: RawResistance,
+    pub resistance: Option<RawResistance>,
     /// `[element.cooling]`.
-    pub cooling: RawCooling,
+    pub cooling: Option<RawCooling>,
+    /// `[element.lamp]`: a lamp filament known by its rating.
+    pub lamp: Option<RawLamp>,
 }
+
+/// One `[T, R]` row of a table, as written.
+pub type RawPoint = [Value; 2];
 
 /// `[element.resistance]`.
 #[derive(Debug, Clone, Deserialize)]
@@ -131,12 +140,26 @@ pub struct RawElement {
 pub struct RawResistance {
     /// Which law.
     pub law: Word,
-    /// R0.
+    /// R0 (or the reference resistance).
     pub r0: Option<Value>,
-    /// T0.
+    /// T0 (or the reference temperature).
     pub t0: Option<Value>,
     /// α.
     pub tcr: Option<Value>,
+    /// NTC B constant.
+    pub beta: Option<Value>,
+    /// Steinhart–Hart a.
+    pub a: Option<Value>,
+    /// Steinhart–Hart b.
+    pub b: Option<Value>,
+    /// Steinhart–Hart c.
+    pub c: Option<Value>,
+    /// `[T, R]` rows: three for a Steinhart–Hart fit, or a table.
+    pub points: Option<Spanned<Vec<RawPoint>>>,
+    /// Low end of a Steinhart–Hart law's range.
+    pub t_min: Option<Value>,
+    /// High end of a Steinhart–Hart law's range.
+    pub t_max: Option<Value>,
 }
 
 /// `[element.cooling]`.
@@ -149,8 +172,55 @@ pub struct RawCooling {
     pub a: Option<Value>,
     /// King's B.
     pub b: Option<Value>,
-    /// King's n.
+    /// King's n (also the data-sheet form's exponent).
     pub n: Option<Value>,
+    /// Still-air dissipation constant.
+    pub dissipation: Option<Value>,
+    /// Dissipation constant at `moving_airflow`.
+    pub dissipation_moving: Option<Value>,
+    /// Airflow of `dissipation_moving`.
+    pub moving_airflow: Option<Value>,
+    /// Thermal time constant (data sheet).
+    pub time_constant: Option<Value>,
+    /// Wire (or coil envelope) diameter.
+    pub diameter: Option<Value>,
+    /// Wire (or coil envelope) length.
+    pub length: Option<Value>,
+    /// Coil: the wire's diameter (for its heat capacity).
+    pub wire_diameter: Option<Value>,
+    /// Coil: the wire's length (for its heat capacity).
+    pub wire_length: Option<Value>,
+    /// Forced-convection correlation.
+    pub forced: Option<Word>,
+    /// Natural-convection correlation.
+    pub natural: Option<Word>,
+    /// Emissivity instead of the material's.
+    pub emissivity: Option<Value>,
+    /// Conductance to the supports.
+    pub supports: Option<Value>,
+}
+
+/// `[element.lamp]`.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawLamp {
+    /// Rated voltage.
+    pub voltage: Value,
+    /// Rated power.
+    pub power: Value,
+    /// Measured cold resistance.
+    pub cold_resistance: Value,
+    /// Temperature of the cold measurement.
+    pub cold_temperature: Option<Value>,
+}
+
+/// A candidates file: `[[candidate]]` tables, each an `[element]` section
+/// plus a `label`.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawCandidates {
+    /// The candidates.
+    pub candidate: Vec<RawElement>,
 }
 
 /// `[drive]`.

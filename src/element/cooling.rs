@@ -4,6 +4,13 @@
 //! the ambient temperature, with its partial derivatives in T and U.
 
 use super::Environment;
+use crate::physics::air::AIR_TABLE_RANGE_K;
+use crate::physics::convection::{
+    ConvectionState, CylinderInCrossFlow, ForcedCorrelation, NaturalCorrelation,
+};
+use crate::physics::materials::Material;
+use crate::physics::radiation::radiative_loss_w;
+use crate::precision::FD_REL_STEP;
 
 /// Why a cooling law could not be built.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -17,6 +24,12 @@ pub enum CoolingLawError {
         condition: &'static str,
         /// The offending value (SI).
         value: f64,
+    },
+    /// The cylinder's dimensions were refused.
+    #[error("wire geometry: {message}")]
+    Geometry {
+        /// The convection model's message, with the offending values.
+        message: String,
     },
 }
 
@@ -77,11 +90,241 @@ impl KingsLaw {
     }
 }
 
-/// The element's heat-loss law. Later laws are added as variants.
+/// Thermistor data-sheet form: the still-air dissipation constant δ0 and
+/// the dissipation constant δ1 the data sheet (or a bench test) gives at
+/// one airflow U1, joined by
+///
+/// δ(U) = δ0 + (δ1 − δ0)·(U/U1)ⁿ (W/K), P_loss = δ(U)·(T − T_amb).
+///
+/// δ is the dissipation constant of MIL-PRF-23648 and IEC 60539-1 (power
+/// per kelvin of self-heating, in still air unless stated). The flow term
+/// has King's form (King 1914, n = 0.5 by default); written this way its
+/// inputs are the two figures a data sheet quotes. The thermal time
+/// constant τ (63.2 % response to a step at zero power in still air, same
+/// standards) gives the heat capacity C = τ·δ0 of a lumped body.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct DissipationLaw {
+    still_air_w_per_k: f64,
+    moving_w_per_k: f64,
+    moving_airflow_m_per_s: f64,
+    king: KingsLaw,
+}
+
+impl DissipationLaw {
+    /// δ0 > 0 in still air, δ1 > δ0 at airflow U1 > 0, exponent 0 < n ≤ 1.
+    pub fn new(
+        still_air_w_per_k: f64,
+        moving_w_per_k: f64,
+        moving_airflow_m_per_s: f64,
+        n: f64,
+    ) -> Result<Self, CoolingLawError> {
+        let bad = |parameter, condition, value| {
+            Err(CoolingLawError::Invalid {
+                parameter,
+                condition,
+                value,
+            })
+        };
+        if !(still_air_w_per_k.is_finite() && still_air_w_per_k > 0.0) {
+            return bad(
+                "dissipation",
+                "a finite dissipation constant above 0 W/K",
+                still_air_w_per_k,
+            );
+        }
+        if !(moving_w_per_k.is_finite() && moving_w_per_k > still_air_w_per_k) {
+            return bad(
+                "dissipation_moving",
+                "a finite dissipation constant above the still-air one",
+                moving_w_per_k,
+            );
+        }
+        if !(moving_airflow_m_per_s.is_finite() && moving_airflow_m_per_s > 0.0) {
+            return bad(
+                "moving_airflow",
+                "a finite airflow above 0 m/s",
+                moving_airflow_m_per_s,
+            );
+        }
+        let b = (moving_w_per_k - still_air_w_per_k) / moving_airflow_m_per_s.powf(n);
+        let king = KingsLaw::new(still_air_w_per_k, b, n)?;
+        Ok(Self {
+            still_air_w_per_k,
+            moving_w_per_k,
+            moving_airflow_m_per_s,
+            king,
+        })
+    }
+    /// δ0, the still-air dissipation constant, W/K.
+    pub fn still_air_w_per_k(&self) -> f64 {
+        self.still_air_w_per_k
+    }
+    /// δ1 at [`DissipationLaw::moving_airflow_m_per_s`], W/K.
+    pub fn moving_w_per_k(&self) -> f64 {
+        self.moving_w_per_k
+    }
+    /// U1, m/s.
+    pub fn moving_airflow_m_per_s(&self) -> f64 {
+        self.moving_airflow_m_per_s
+    }
+    /// The same law as King's A + B·Uⁿ (A = δ0, B = (δ1 − δ0)/U1ⁿ).
+    pub fn as_kings_law(&self) -> KingsLaw {
+        self.king
+    }
+    /// Heat capacity from the data-sheet time constant, C = τ·δ0, J/K.
+    pub fn heat_capacity_from_time_constant(&self, time_constant_s: f64) -> f64 {
+        time_constant_s * self.still_air_w_per_k
+    }
+}
+
+/// Whether the geometry is the wire itself or the envelope of a coil.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum Shape {
+    /// A straight wire: diameter and length are the wire's.
+    StraightWire,
+    /// A coil treated as a solid cylinder of its outer envelope (diameter
+    /// and length of the coil). Stated simplification: the turns shade each
+    /// other, so the coil is taken to lose heat like its envelope; this is
+    /// the usual first estimate and gives a lower loss than the uncoiled
+    /// wire would (see `crate::physics::lamp::coil_note`).
+    CoilEnvelope,
+}
+
+/// Heat loss of a cylinder from its geometry: convection
+/// ([`CylinderInCrossFlow`]: forced correlation, natural floor, power-mean
+/// mixing), radiation `ε(T)·σ·A·(T⁴ − T_amb⁴)` (Incropera et al., 6th ed.,
+/// eq. 1.7; surroundings at ambient), and optional conduction to the
+/// supports as a fixed conductance `G_s·(T − T_amb)`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct GeometryCooling {
+    cylinder: CylinderInCrossFlow,
+    shape: Shape,
+    material: Material,
+    emissivity_override: Option<f64>,
+    support_w_per_k: f64,
+}
+
+impl GeometryCooling {
+    /// A cylinder of `diameter_m` < `length_m` of `material`, with the
+    /// correlations to use, an optional fixed emissivity (0…1; otherwise the
+    /// material's, temperature-dependent for tungsten) and a support
+    /// conductance ≥ 0 W/K.
+    // Eight plain physical inputs, each validated here; a builder would add
+    // a type for no gain.
+    #[allow(clippy::too_many_arguments)]
+    pub fn new(
+        shape: Shape,
+        diameter_m: f64,
+        length_m: f64,
+        material: Material,
+        forced: ForcedCorrelation,
+        natural: NaturalCorrelation,
+        emissivity_override: Option<f64>,
+        support_w_per_k: f64,
+    ) -> Result<Self, CoolingLawError> {
+        let cylinder =
+            CylinderInCrossFlow::new(diameter_m, length_m, forced, natural).map_err(|e| {
+                CoolingLawError::Geometry {
+                    message: e.to_string(),
+                }
+            })?;
+        if let Some(e) = emissivity_override {
+            if !(e.is_finite() && (0.0..=1.0).contains(&e)) {
+                return Err(CoolingLawError::Invalid {
+                    parameter: "emissivity",
+                    condition: "a number from 0 to 1",
+                    value: e,
+                });
+            }
+        }
+        if !(support_w_per_k.is_finite() && support_w_per_k >= 0.0) {
+            return Err(CoolingLawError::Invalid {
+                parameter: "supports",
+                condition: "a finite conductance of at least 0 W/K",
+                value: support_w_per_k,
+            });
+        }
+        Ok(Self {
+            cylinder,
+            shape,
+            material,
+            emissivity_override,
+            support_w_per_k,
+        })
+    }
+    /// The convecting cylinder.
+    pub fn cylinder(&self) -> &CylinderInCrossFlow {
+        &self.cylinder
+    }
+    /// Wire or coil envelope.
+    pub fn shape(&self) -> Shape {
+        self.shape
+    }
+    /// The material (emissivity, heat capacity, limits).
+    pub fn material(&self) -> Material {
+        self.material
+    }
+    /// Conductance to the supports, W/K.
+    pub fn support_w_per_k(&self) -> f64 {
+        self.support_w_per_k
+    }
+    /// Emissivity used at `t_k`.
+    pub fn emissivity(&self, t_k: f64) -> f64 {
+        self.emissivity_override
+            .unwrap_or_else(|| self.material.emissivity(t_k))
+    }
+    /// Heat capacity ρ·c·(π/4)·d²·L of a solid wire of this material, J/K
+    /// (ρ, c near 300 K from [`Material`]). For a coil envelope this is not
+    /// the wire's volume: callers use it for straight wires only.
+    pub fn wire_heat_capacity_j_per_k(&self) -> f64 {
+        let d = self.cylinder.diameter_m();
+        self.material.density_kg_per_m3()
+            * self.material.specific_heat_j_per_kg_k()
+            * std::f64::consts::FRAC_PI_4
+            * d
+            * d
+            * self.cylinder.length_m()
+    }
+    fn convection(&self, t_k: f64, u: f64, env: &Environment) -> Option<ConvectionState> {
+        self.cylinder
+            .convection(u, t_k, env.ambient_k, env.pressure_pa)
+            .ok()
+    }
+    /// Total loss, W; NaN only when the convection model refuses its input
+    /// (T or ambient not above 0 K, a bad pressure), which the solver then
+    /// reports as a numerical failure.
+    fn loss_w(&self, t_k: f64, u: f64, env: &Environment) -> f64 {
+        let conv = self
+            .convection(t_k, u, env)
+            .map_or(f64::NAN, |c| c.heat_loss_w);
+        let rad = radiative_loss_w(
+            self.cylinder.surface_area_m2(),
+            self.emissivity(t_k),
+            t_k,
+            env.ambient_k,
+        );
+        conv + rad + self.support_w_per_k * (t_k - env.ambient_k)
+    }
+}
+
+/// The element's heat-loss law.
 #[derive(Debug, Clone, PartialEq)]
 pub enum CoolingLaw {
     /// King's law with constant coefficients.
     King(KingsLaw),
+    /// Thermistor data-sheet form (dissipation constants).
+    Datasheet(DissipationLaw),
+    /// From the wire's (or coil envelope's) geometry and material.
+    Geometry(GeometryCooling),
+}
+
+/// Central finite difference of `f` at `x` with step `FD_REL_STEP·scale`,
+/// one-sided (forward) when `x − h` would fall below `floor`.
+fn central_difference(f: impl Fn(f64) -> f64, x: f64, scale: f64, floor: f64) -> f64 {
+    let h = FD_REL_STEP * scale;
+    let lo = (x - h).max(floor);
+    let hi = lo + 2.0 * h;
+    (f(hi) - f(lo)) / (hi - lo)
 }
 
 impl CoolingLaw {
@@ -89,27 +332,43 @@ impl CoolingLaw {
     pub fn heat_loss_w(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
         match self {
             CoolingLaw::King(k) => k.conductance_w_per_k(airflow_m_per_s) * (t_k - env.ambient_k),
+            CoolingLaw::Datasheet(d) => {
+                d.king.conductance_w_per_k(airflow_m_per_s) * (t_k - env.ambient_k)
+            }
+            CoolingLaw::Geometry(g) => g.loss_w(t_k, airflow_m_per_s, env),
         }
     }
 
-    /// ∂P_loss/∂T (W/K).
+    /// ∂P_loss/∂T (W/K): analytic for King and the data-sheet form; for
+    /// geometry a central difference with step `FD_REL_STEP·T`.
     pub fn d_heat_loss_dt(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
         match self {
-            CoolingLaw::King(k) => {
-                let _ = t_k;
-                let _ = env;
-                k.conductance_w_per_k(airflow_m_per_s)
-            }
+            CoolingLaw::King(k) => k.conductance_w_per_k(airflow_m_per_s),
+            CoolingLaw::Datasheet(d) => d.king.conductance_w_per_k(airflow_m_per_s),
+            CoolingLaw::Geometry(g) => central_difference(
+                |t| g.loss_w(t, airflow_m_per_s, env),
+                t_k,
+                t_k,
+                f64::MIN_POSITIVE,
+            ),
         }
     }
 
-    /// ∂P_loss/∂U (W per m/s); for U = 0 and n < 1 the one-sided limit is
-    /// infinite, so callers evaluate it at U > 0.
+    /// ∂P_loss/∂U (W per m/s); for U = 0 the one-sided limit is infinite
+    /// for King (n < 1) and for the forced correlations (Nu − Nu₀ ∝ Re^½),
+    /// so callers evaluate it at U > 0. Geometry: central difference with
+    /// step `FD_REL_STEP·max(|U|, 0.01 m/s)`, forward at U = 0.
     pub fn d_heat_loss_du(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
+        let king_du = |k: &KingsLaw| {
+            let u = airflow_m_per_s.abs().max(f64::MIN_POSITIVE);
+            k.b_w_per_k * k.n * u.powf(k.n - 1.0) * (t_k - env.ambient_k)
+        };
         match self {
-            CoolingLaw::King(k) => {
-                let u = airflow_m_per_s.abs().max(f64::MIN_POSITIVE);
-                k.b_w_per_k * k.n * u.powf(k.n - 1.0) * (t_k - env.ambient_k)
+            CoolingLaw::King(k) => king_du(k),
+            CoolingLaw::Datasheet(d) => king_du(&d.king),
+            CoolingLaw::Geometry(g) => {
+                let u = airflow_m_per_s.abs();
+                central_difference(|v| g.loss_w(t_k, v, env), u, u.max(0.01), 0.0)
             }
         }
     }
@@ -118,6 +377,293 @@ impl CoolingLaw {
     pub fn name(&self) -> &'static str {
         match self {
             CoolingLaw::King(_) => "King's law",
+            CoolingLaw::Datasheet(_) => "thermistor dissipation constant",
+            CoolingLaw::Geometry(g) => match g.shape {
+                Shape::StraightWire => "straight-wire geometry",
+                Shape::CoilEnvelope => "coil-envelope geometry",
+            },
         }
+    }
+
+    /// Where the model is used outside its published range at (T, U):
+    /// empty for King and the data-sheet form; for geometry, the flags of
+    /// the convection correlations ([`crate::physics::convection::RangeWarnings`])
+    /// and a film temperature outside the range over which the air
+    /// properties were checked (Incropera 6th ed. Table A.4, 250–600 K).
+    pub fn range_warnings(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> Vec<String> {
+        let CoolingLaw::Geometry(g) = self else {
+            return Vec::new();
+        };
+        let Some(c) = g.convection(t_k, airflow_m_per_s, env) else {
+            return vec![format!(
+                "convection could not be evaluated at {t_k:.1} K, {airflow_m_per_s} m/s"
+            )];
+        };
+        let forced = match g.cylinder.forced() {
+            ForcedCorrelation::CollisWilliams => "Collis & Williams (0.02 < Re < 140)",
+            ForcedCorrelation::ChurchillBernstein => "Churchill & Bernstein (Re·Pr ≥ 0.2)",
+        };
+        let natural = match g.cylinder.natural() {
+            NaturalCorrelation::ChurchillChu => "Churchill & Chu (Ra ≤ 1e12)",
+            NaturalCorrelation::Morgan => "Morgan (1e-10 < Ra < 1e12)",
+        };
+        let at = format!("at {:.1} °C and {airflow_m_per_s:.3} m/s", t_k - 273.15);
+        let mut out = Vec::new();
+        let w = c.warnings;
+        if w.reynolds_above_range {
+            out.push(format!(
+                "Re = {:.3e} {at} is above the range of {forced}",
+                c.reynolds
+            ));
+        }
+        if w.reynolds_below_range {
+            out.push(format!(
+                "Re = {:.3e} {at} is below the range of {forced}",
+                c.reynolds
+            ));
+        }
+        if w.rayleigh_out_of_range {
+            out.push(format!(
+                "Ra = {:.3e} {at} is outside the range of {natural}",
+                c.rayleigh
+            ));
+        }
+        if w.free_convection_dominates && airflow_m_per_s > 0.0 {
+            out.push(format!(
+                "free convection dominates {at} (Re = {:.3e} < Gr^(1/3), the Collis & Williams criterion): \
+                 the forced-convection correlation is outside its regime and the wire's orientation matters",
+                c.reynolds
+            ));
+        }
+        let (lo, hi) = AIR_TABLE_RANGE_K;
+        if c.film_temperature_k < lo || c.film_temperature_k > hi {
+            out.push(format!(
+                "film temperature {:.0} K {at} is outside {lo:.0}–{hi:.0} K, where the air properties were checked \
+                 against Incropera 6th ed. Table A.4",
+                c.film_temperature_k
+            ));
+        }
+        out
+    }
+
+    /// Conductance G(U) = P_loss(T, U)/(T − T_amb), W/K, at a fixed element
+    /// temperature (radiation and support conduction included).
+    pub fn conductance_w_per_k(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
+        let dt = t_k - env.ambient_k;
+        self.heat_loss_w(t_k, airflow_m_per_s, env) / dt
+    }
+
+    /// The King's law A + B·Uⁿ equivalent to this law around an operating
+    /// point: G(U) = P_loss(T, U)/(T − T_amb) at the fixed temperature `t_k`
+    /// is evaluated at U = 0, U_trip/2, U_trip and 2·U_trip and fitted by
+    /// least squares: for each n, A and B solve the linear 2×2 normal
+    /// equations; n minimises the sum of squared residuals over [0.05, 1]
+    /// by golden-section search (Kiefer 1953; e.g. Press et al., Numerical
+    /// Recipes, 3rd ed., §10.2). A includes radiation and support
+    /// conduction linearised at T. Needs T > T_amb and U_trip > 0.
+    pub fn equivalent_kings_law(
+        &self,
+        t_k: f64,
+        trip_airflow_m_per_s: f64,
+        env: &Environment,
+    ) -> Result<KingsLaw, CoolingLawError> {
+        if !(t_k.is_finite() && t_k > env.ambient_k) {
+            return Err(CoolingLawError::Invalid {
+                parameter: "element temperature",
+                condition: "above ambient",
+                value: t_k,
+            });
+        }
+        let u_t = trip_airflow_m_per_s;
+        if !(u_t.is_finite() && u_t > 0.0) {
+            return Err(CoolingLawError::Invalid {
+                parameter: "trip airflow",
+                condition: "a finite airflow above 0 m/s",
+                value: u_t,
+            });
+        }
+        let us = [0.0, 0.5 * u_t, u_t, 2.0 * u_t];
+        let gs = us.map(|u| self.conductance_w_per_k(t_k, u, env));
+        if gs.iter().any(|g| !g.is_finite()) {
+            return Err(CoolingLawError::Invalid {
+                parameter: "conductance",
+                condition: "finite at the fit airflows",
+                value: f64::NAN,
+            });
+        }
+        // Linear least squares in (A, B) for a given n; returns (A, B, SSE).
+        let solve = |n: f64| {
+            let xs = us.map(|u| u.powf(n));
+            let m = xs.len() as f64;
+            let (sx, sy) = (xs.iter().sum::<f64>(), gs.iter().sum::<f64>());
+            let sxx: f64 = xs.iter().map(|x| x * x).sum();
+            let sxy: f64 = xs.iter().zip(&gs).map(|(x, y)| x * y).sum();
+            let det = m * sxx - sx * sx;
+            let b = (m * sxy - sx * sy) / det;
+            let a = (sy - b * sx) / m;
+            let sse: f64 = xs
+                .iter()
+                .zip(&gs)
+                .map(|(x, y)| (a + b * x - y).powi(2))
+                .sum();
+            (a, b, sse)
+        };
+        let (mut lo, mut hi) = (0.05_f64, 1.0_f64);
+        let phi = 0.5 * (5f64.sqrt() - 1.0);
+        let mut x1 = hi - phi * (hi - lo);
+        let mut x2 = lo + phi * (hi - lo);
+        let (mut f1, mut f2) = (solve(x1).2, solve(x2).2);
+        for _ in 0..80 {
+            if f1 <= f2 {
+                hi = x2;
+                x2 = x1;
+                f2 = f1;
+                x1 = hi - phi * (hi - lo);
+                f1 = solve(x1).2;
+            } else {
+                lo = x1;
+                x1 = x2;
+                f1 = f2;
+                x2 = lo + phi * (hi - lo);
+                f2 = solve(x2).2;
+            }
+        }
+        let n = 0.5 * (lo + hi);
+        let (a, b, _) = solve(n);
+        KingsLaw::new(a.max(0.0), b, n)
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use approx::assert_relative_eq;
+
+    fn env() -> Environment {
+        Environment::at(293.15)
+    }
+
+    fn wire() -> CoolingLaw {
+        CoolingLaw::Geometry(
+            GeometryCooling::new(
+                Shape::StraightWire,
+                25e-6,
+                0.03,
+                Material::Platinum,
+                ForcedCorrelation::ChurchillBernstein,
+                NaturalCorrelation::ChurchillChu,
+                None,
+                1e-4,
+            )
+            .unwrap(),
+        )
+    }
+
+    #[test]
+    fn datasheet_form_hits_both_given_points() {
+        // δ(U) = δ0 + (δ1 − δ0)·(U/U1)ⁿ: δ(0) = 1.5 mW/K, δ(2 m/s) = 4 mW/K
+        // by construction; at 0.5 m/s with n = 0.5: 1.5 + 2.5·√0.25 = 2.75 mW/K.
+        let d = DissipationLaw::new(1.5e-3, 4e-3, 2.0, 0.5).unwrap();
+        let law = CoolingLaw::Datasheet(d);
+        let e = env();
+        assert_relative_eq!(
+            law.heat_loss_w(303.15, 0.0, &e),
+            1.5e-3 * 10.0,
+            max_relative = 1e-12
+        );
+        assert_relative_eq!(
+            law.heat_loss_w(303.15, 2.0, &e),
+            4e-3 * 10.0,
+            max_relative = 1e-12
+        );
+        assert_relative_eq!(
+            law.heat_loss_w(303.15, 0.5, &e),
+            2.75e-3 * 10.0,
+            max_relative = 1e-12
+        );
+        // C = τ·δ0 (MIL-PRF-23648 definitions): 8 s × 1.5 mW/K = 12 mJ/K.
+        assert_relative_eq!(
+            d.heat_capacity_from_time_constant(8.0),
+            0.012,
+            max_relative = 1e-12
+        );
+        assert!(DissipationLaw::new(2e-3, 1e-3, 1.0, 0.5).is_err());
+    }
+
+    #[test]
+    fn geometry_derivatives_match_wider_differences() {
+        // Central differences at FD_REL_STEP against a 100× wider central
+        // difference: a smooth loss makes them agree closely.
+        let law = wire();
+        let e = env();
+        for (t, u) in [(330.0, 0.0), (360.0, 0.3), (420.0, 2.0), (600.0, 8.0)] {
+            let h = 1e-4 * t;
+            let wide_t =
+                (law.heat_loss_w(t + h, u, &e) - law.heat_loss_w(t - h, u, &e)) / (2.0 * h);
+            assert_relative_eq!(law.d_heat_loss_dt(t, u, &e), wide_t, max_relative = 1e-5);
+            if u > 0.0 {
+                let k = 1e-4 * u;
+                let wide_u =
+                    (law.heat_loss_w(t, u + k, &e) - law.heat_loss_w(t, u - k, &e)) / (2.0 * k);
+                assert_relative_eq!(law.d_heat_loss_du(t, u, &e), wide_u, max_relative = 1e-5);
+            }
+        }
+    }
+
+    #[test]
+    fn equivalent_kings_law_recovers_a_kings_law() {
+        // Fitting A + B·Uⁿ to a King's law itself must return it (the model
+        // is exact, so the least-squares residual is zero at the true n).
+        let king = CoolingLaw::King(KingsLaw::new(1.2e-3, 2.4e-3, 0.45).unwrap());
+        let fit = king.equivalent_kings_law(350.0, 0.5, &env()).unwrap();
+        assert_relative_eq!(fit.a_w_per_k(), 1.2e-3, max_relative = 1e-6);
+        assert_relative_eq!(fit.b_w_per_k(), 2.4e-3, max_relative = 1e-6);
+        assert_relative_eq!(fit.n(), 0.45, max_relative = 1e-6);
+    }
+
+    #[test]
+    fn equivalent_kings_law_of_a_wire_is_close_at_the_fit_points() {
+        let law = wire();
+        let e = env();
+        let (t, u_t) = (373.15, 1.0);
+        let k = law.equivalent_kings_law(t, u_t, &e).unwrap();
+        for u in [0.0, 0.5, 1.0, 2.0] {
+            let g = law.conductance_w_per_k(t, u, &e);
+            assert_relative_eq!(k.conductance_w_per_k(u), g, max_relative = 0.05);
+        }
+        assert!(k.n() > 0.05 && k.n() < 1.0);
+        assert!(law.equivalent_kings_law(293.15, 1.0, &e).is_err());
+    }
+
+    #[test]
+    fn range_warnings_only_for_geometry_out_of_range() {
+        let e = env();
+        let king = CoolingLaw::King(KingsLaw::new(1e-3, 2e-3, 0.5).unwrap());
+        assert!(king.range_warnings(400.0, 500.0, &e).is_empty());
+        // A film temperature of (2000 + 293)/2 ≈ 1147 K lies above the
+        // 250–600 K over which the air properties were checked.
+        let w = wire().range_warnings(2000.0, 1.0, &e);
+        assert!(w.iter().any(|s| s.contains("film temperature")), "{w:?}");
+    }
+
+    #[test]
+    fn geometry_rejects_bad_inputs() {
+        let bad = |d: f64, l: f64, eps: Option<f64>, g: f64| {
+            GeometryCooling::new(
+                Shape::StraightWire,
+                d,
+                l,
+                Material::Nickel,
+                ForcedCorrelation::ChurchillBernstein,
+                NaturalCorrelation::ChurchillChu,
+                eps,
+                g,
+            )
+            .is_err()
+        };
+        assert!(bad(0.0, 0.01, None, 0.0));
+        assert!(bad(0.02, 0.01, None, 0.0));
+        assert!(bad(1e-5, 0.01, Some(1.5), 0.0));
+        assert!(bad(1e-5, 0.01, None, -1.0));
     }
 }

@@ -4,8 +4,10 @@
 pub mod cooling;
 pub mod resistance;
 
-pub use cooling::{CoolingLaw, CoolingLawError, KingsLaw};
-pub use resistance::{LinearTcr, ResistanceLaw, ResistanceLawError};
+pub use cooling::{CoolingLaw, CoolingLawError, DissipationLaw, GeometryCooling, KingsLaw, Shape};
+pub use resistance::{
+    LinearTcr, ResistanceLaw, ResistanceLawError, ResistanceTable, ScaledSteinhartHart,
+};
 
 /// The air around the element.
 #[derive(Debug, Clone, Copy, PartialEq)]
@@ -54,6 +56,7 @@ pub struct Element {
     cooling: CoolingLaw,
     heat_capacity_j_per_k: f64,
     max_temperature_k: Option<f64>,
+    notes: Vec<String>,
 }
 
 impl Element {
@@ -83,6 +86,7 @@ impl Element {
             cooling,
             heat_capacity_j_per_k,
             max_temperature_k,
+            notes: Vec::new(),
         })
     }
     /// The resistance law.
@@ -108,5 +112,22 @@ impl Element {
             resistance,
             ..self.clone()
         }
+    }
+    /// Notes about how the element was derived (e.g. a lamp filament
+    /// inferred from its rating: how far the measured cold resistance
+    /// agrees with typical lamps, and what coiling changes), for the report.
+    pub fn notes(&self) -> &[String] {
+        &self.notes
+    }
+    /// This element with notes appended.
+    pub fn with_notes(mut self, notes: impl IntoIterator<Item = String>) -> Self {
+        self.notes.extend(notes);
+        self
+    }
+    /// Where the cooling model is used outside its published range at
+    /// element temperature `t_k` and airflow `airflow_m_per_s`
+    /// ([`CoolingLaw::range_warnings`]); empty when all is in range.
+    pub fn range_warnings(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> Vec<String> {
+        self.cooling.range_warnings(t_k, airflow_m_per_s, env)
     }
 }

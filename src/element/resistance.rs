@@ -4,6 +4,11 @@
 //! `R(T)` and `dR/dT` without heap allocation and states the temperature
 //! range over which it is valid.
 
+use crate::physics::interp::MonotoneTable;
+use crate::physics::materials::Material;
+use crate::physics::platinum::CallendarVanDusen;
+use crate::physics::thermistor::{BetaThermistor, SteinhartHart};
+use crate::physics::tungsten::TungstenWire;
 use serde::Serialize;
 
 /// Why a resistance law could not be built.
@@ -18,6 +23,14 @@ pub enum ResistanceLawError {
         condition: &'static str,
         /// The offending value (SI).
         value: f64,
+    },
+    /// A law from `crate::physics` refused its parameters.
+    #[error("{law}: {message}")]
+    Physics {
+        /// Which law.
+        law: &'static str,
+        /// The physics module's message (it carries the offending value).
+        message: String,
     },
 }
 
@@ -99,11 +112,115 @@ impl LinearTcr {
     }
 }
 
-/// The element's resistance law. Later laws are added as variants.
+impl LinearTcr {
+    /// A linear law for a preset material: α from
+    /// [`Material::tcr_per_k`] (referred to the material's own reference
+    /// temperature T_ref), re-referred to the given `t0_k` so that R0 stays
+    /// the file's value: α(T0) = α_ref / (1 + α_ref·(T0 − T_ref)), which
+    /// leaves the line R(T) unchanged (algebra on R0·(1 + α·(T − T0))).
+    pub fn for_material(
+        material: Material,
+        r0_ohm: f64,
+        t0_k: f64,
+    ) -> Result<Self, ResistanceLawError> {
+        let a_ref = material.tcr_per_k();
+        let t_ref = material.tcr_reference_temperature_k();
+        let alpha = a_ref / (1.0 + a_ref * (t0_k - t_ref));
+        Self::new(r0_ohm, t0_k, alpha)
+    }
+}
+
+/// A Steinhart–Hart law whose resistances are all multiplied by `scale`
+/// (1 for the law as given; a tolerance corner scales it).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ScaledSteinhartHart {
+    /// The law as given or fitted.
+    pub law: SteinhartHart,
+    /// Factor on every resistance, > 0.
+    pub scale: f64,
+}
+
+/// A user table R(T), interpolated by Fritsch–Carlson monotone cubics
+/// ([`MonotoneTable`]; F. N. Fritsch & R. E. Carlson, SIAM J. Numer. Anal.
+/// 17 (1980) 238–246). The law is valid only on the table's span: the
+/// solver's range ends at the last row, so an operating point beyond the
+/// table is reported (runaway or no solution) instead of extrapolated.
+#[derive(Debug, Clone, PartialEq)]
+pub struct ResistanceTable {
+    table: MonotoneTable,
+}
+
+impl ResistanceTable {
+    /// A table from (T in K, R in ohm) rows in rising T, R > 0 and strictly
+    /// monotone. The error names the first offending row (0-based).
+    pub fn new(
+        temperatures_k: Vec<f64>,
+        resistances_ohm: Vec<f64>,
+    ) -> Result<Self, ResistanceLawError> {
+        for (i, &r) in resistances_ohm.iter().enumerate() {
+            if !(r > 0.0 && r.is_finite()) {
+                return Err(ResistanceLawError::Physics {
+                    law: "R(T) table",
+                    message: format!(
+                        "row {i}: resistance must be a finite value above 0 ohm, found {r}"
+                    ),
+                });
+            }
+        }
+        for (i, &t) in temperatures_k.iter().enumerate() {
+            if t.is_nan() || t <= 0.0 {
+                return Err(ResistanceLawError::Physics {
+                    law: "R(T) table",
+                    message: format!("row {i}: temperature must be above 0 K, found {t} K"),
+                });
+            }
+        }
+        MonotoneTable::new(temperatures_k, resistances_ohm)
+            .map(|table| Self { table })
+            .map_err(|e| ResistanceLawError::Physics {
+                law: "R(T) table",
+                message: format!("{e} (rows counted from 0; temperatures must rise and resistances be strictly monotone)"),
+            })
+    }
+    /// The rows as (T K, R ohm).
+    pub fn rows(&self) -> impl Iterator<Item = (f64, f64)> + '_ {
+        self.table
+            .xs()
+            .iter()
+            .copied()
+            .zip(self.table.ys().iter().copied())
+    }
+    fn value(&self, t_k: f64) -> f64 {
+        // Inside the span: the interpolant. Outside (never used by the
+        // solver, whose range is the span): linear with the end slope, so
+        // the value stays finite.
+        let (lo, hi) = self.table.range();
+        let end = t_k.clamp(lo, hi);
+        let v = self.table.eval(end).unwrap_or(f64::NAN);
+        v + self.slope(end) * (t_k - end)
+    }
+    fn slope(&self, t_k: f64) -> f64 {
+        let (lo, hi) = self.table.range();
+        self.table.derivative(t_k.clamp(lo, hi)).unwrap_or(f64::NAN)
+    }
+}
+
+/// The element's resistance law.
 #[derive(Debug, Clone, PartialEq)]
 pub enum ResistanceLaw {
     /// `R = R0·(1 + α·(T − T0))`.
     Linear(LinearTcr),
+    /// Platinum, Callendar–Van Dusen (IEC 60751 coefficients).
+    Platinum(CallendarVanDusen),
+    /// Tungsten, `R_ref·ρ(T)/ρ(T_ref)` with the Forsythe & Worthing (1925)
+    /// resistivity table.
+    Tungsten(TungstenWire),
+    /// NTC beta model `R0·exp(B·(1/T − 1/T0))`.
+    Beta(BetaThermistor),
+    /// NTC Steinhart–Hart `1/T = a + b·ln R + c·(ln R)³`.
+    SteinhartHart(ScaledSteinhartHart),
+    /// A user table R(T), monotone interpolation.
+    Table(ResistanceTable),
 }
 
 impl ResistanceLaw {
@@ -111,21 +228,29 @@ impl ResistanceLaw {
     pub fn resistance_ohm(&self, t_k: f64) -> f64 {
         match self {
             ResistanceLaw::Linear(l) => l.r0_ohm * (1.0 + l.alpha_per_k * (t_k - l.t0_k)),
+            ResistanceLaw::Platinum(p) => p.resistance_ohm(t_k),
+            ResistanceLaw::Tungsten(w) => w.resistance_ohm(t_k),
+            ResistanceLaw::Beta(b) => b.resistance_ohm(t_k),
+            ResistanceLaw::SteinhartHart(s) => s.scale * s.law.resistance_ohm(t_k),
+            ResistanceLaw::Table(t) => t.value(t_k),
         }
     }
 
-    /// dR/dT at `t_k`, in ohm/K.
+    /// dR/dT at `t_k`, in ohm/K (analytic for every law).
     pub fn derivative_ohm_per_k(&self, t_k: f64) -> f64 {
         match self {
-            ResistanceLaw::Linear(l) => {
-                let _ = t_k;
-                l.r0_ohm * l.alpha_per_k
-            }
+            ResistanceLaw::Linear(l) => l.r0_ohm * l.alpha_per_k,
+            ResistanceLaw::Platinum(p) => p.derivative_ohm_per_k(t_k),
+            ResistanceLaw::Tungsten(w) => w.derivative_ohm_per_k(t_k),
+            ResistanceLaw::Beta(b) => b.derivative_ohm_per_k(t_k),
+            ResistanceLaw::SteinhartHart(s) => s.scale * s.law.derivative_ohm_per_k(t_k),
+            ResistanceLaw::Table(t) => t.slope(t_k),
         }
     }
 
     /// Temperature range (K) over which the law is valid and gives a
-    /// positive resistance.
+    /// positive resistance: the solver never looks beyond it, so an
+    /// operating point outside is reported as runaway, not extrapolated.
     pub fn valid_range_k(&self) -> (f64, f64) {
         match self {
             ResistanceLaw::Linear(l) => {
@@ -138,6 +263,11 @@ impl ResistanceLaw {
                 }
                 (lo, hi)
             }
+            ResistanceLaw::Platinum(p) => p.temperature_range_k(),
+            ResistanceLaw::Tungsten(w) => w.temperature_range_k(),
+            ResistanceLaw::Beta(b) => b.temperature_range_k(),
+            ResistanceLaw::SteinhartHart(s) => s.law.temperature_range_k(),
+            ResistanceLaw::Table(t) => t.table.range(),
         }
     }
 
@@ -151,13 +281,46 @@ impl ResistanceLaw {
     }
 
     /// The same law with every resistance scaled by `factor` (a part at a
-    /// tolerance corner).
+    /// tolerance corner). A factor that is not finite and positive leaves
+    /// the law unchanged.
     pub fn scaled(&self, factor: f64) -> Self {
+        if !(factor.is_finite() && factor > 0.0) {
+            return self.clone();
+        }
         match self {
             ResistanceLaw::Linear(l) => ResistanceLaw::Linear(LinearTcr {
                 r0_ohm: l.r0_ohm * factor,
                 ..*l
             }),
+            // Scaling R0 keeps R(T) positive and increasing, so the
+            // constructors accept it; the fallbacks are never taken.
+            ResistanceLaw::Platinum(p) => {
+                let (a, b, c) = p.coefficients();
+                ResistanceLaw::Platinum(
+                    CallendarVanDusen::new(p.r0_ohm() * factor, a, b, c).unwrap_or(*p),
+                )
+            }
+            ResistanceLaw::Tungsten(w) => ResistanceLaw::Tungsten(
+                TungstenWire::new(
+                    w.reference_resistance_ohm() * factor,
+                    w.reference_temperature_k(),
+                )
+                .unwrap_or(*w),
+            ),
+            ResistanceLaw::Beta(b) => ResistanceLaw::Beta(
+                BetaThermistor::new(b.r0_ohm() * factor, b.t0_k(), b.beta_k()).unwrap_or(*b),
+            ),
+            ResistanceLaw::SteinhartHart(s) => ResistanceLaw::SteinhartHart(ScaledSteinhartHart {
+                law: s.law,
+                scale: s.scale * factor,
+            }),
+            ResistanceLaw::Table(t) => {
+                let ys: Vec<f64> = t.table.ys().iter().map(|r| r * factor).collect();
+                match MonotoneTable::new(t.table.xs().to_vec(), ys) {
+                    Ok(table) => ResistanceLaw::Table(ResistanceTable { table }),
+                    Err(_) => self.clone(),
+                }
+            }
         }
     }
 
@@ -165,6 +328,11 @@ impl ResistanceLaw {
     pub fn name(&self) -> &'static str {
         match self {
             ResistanceLaw::Linear(_) => "linear TCR",
+            ResistanceLaw::Platinum(_) => "platinum (Callendar–Van Dusen, IEC 60751)",
+            ResistanceLaw::Tungsten(_) => "tungsten (Forsythe & Worthing 1925 table)",
+            ResistanceLaw::Beta(_) => "NTC beta model",
+            ResistanceLaw::SteinhartHart(_) => "NTC Steinhart–Hart",
+            ResistanceLaw::Table(_) => "R(T) table",
         }
     }
 
@@ -173,5 +341,102 @@ impl ResistanceLaw {
         let (lo, hi) = self.valid_range_k();
         let mid = 0.5 * (lo + hi).min(lo + 600.0);
         self.derivative_ohm_per_k(mid) > 0.0
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use approx::assert_relative_eq;
+
+    const T0C: f64 = 273.15;
+
+    #[test]
+    fn platinum_matches_iec60751_table() {
+        // IEC 60751 Pt100 table: 100 °C 138.51 Ω, 200 °C 175.86 Ω, 400 °C 247.09 Ω.
+        let law = ResistanceLaw::Platinum(CallendarVanDusen::iec60751(100.0).unwrap());
+        for (t_c, r) in [(100.0, 138.51), (200.0, 175.86), (400.0, 247.09)] {
+            assert_relative_eq!(law.resistance_ohm(T0C + t_c), r, max_relative = 1e-4);
+        }
+        assert!(law.is_increasing());
+        let t = law.temperature_for_resistance(138.51).unwrap();
+        assert_relative_eq!(t, T0C + 100.0, max_relative = 1e-4);
+    }
+
+    #[test]
+    fn nickel_preset_re_referred_keeps_the_line() {
+        // Hand calculation: nickel α = 0.0060 /K at 20 °C (materials preset).
+        // R0 = 10 Ω at 20 °C gives R(120 °C) = 10·(1 + 0.6) = 16 Ω.
+        // Re-referred to 0 °C: R(0 °C) = 10·(1 − 0.12) = 8.8 Ω and
+        // α(0 °C) = 0.006/0.88 = 0.0068182 /K, so 8.8·(1 + 0.68182) = 16 Ω.
+        let at20 = LinearTcr::for_material(Material::Nickel, 10.0, T0C + 20.0).unwrap();
+        assert_relative_eq!(at20.alpha_per_k(), 0.006, max_relative = 1e-12);
+        let at0 = LinearTcr::for_material(Material::Nickel, 8.8, T0C).unwrap();
+        assert_relative_eq!(at0.alpha_per_k(), 0.006 / 0.88, max_relative = 1e-12);
+        let law = ResistanceLaw::Linear(at0);
+        assert_relative_eq!(law.resistance_ohm(T0C + 120.0), 16.0, max_relative = 1e-12);
+    }
+
+    #[test]
+    fn beta_is_decreasing_and_scales() {
+        // Beta model at T0: R = R0 exactly (definition); scaled by 1.05.
+        let law = ResistanceLaw::Beta(BetaThermistor::new(10e3, 298.15, 3950.0).unwrap());
+        assert!(!law.is_increasing());
+        assert_relative_eq!(
+            law.scaled(1.05).resistance_ohm(298.15),
+            10.5e3,
+            max_relative = 1e-12
+        );
+    }
+
+    #[test]
+    fn steinhart_hart_scaled_and_inverted() {
+        // Steinhart & Hart (1968) form; coefficients fitted here to three
+        // points of a 10 kΩ B = 3950 K beta curve (hand-built, consistent data).
+        let beta = BetaThermistor::new(10e3, 298.15, 3950.0).unwrap();
+        let pts = [273.15, 298.15, 323.15].map(|t| (t, beta.resistance_ohm(t)));
+        let sh = SteinhartHart::fit_three_points(pts).unwrap();
+        let law = ResistanceLaw::SteinhartHart(ScaledSteinhartHart {
+            law: sh,
+            scale: 1.0,
+        });
+        assert_relative_eq!(law.resistance_ohm(298.15), 10e3, max_relative = 1e-9);
+        let s = law.scaled(0.9);
+        assert_relative_eq!(s.resistance_ohm(298.15), 9e3, max_relative = 1e-9);
+        let t = s.temperature_for_resistance(9e3).unwrap();
+        assert_relative_eq!(t, 298.15, max_relative = 1e-9);
+    }
+
+    #[test]
+    fn table_range_is_its_span_and_rejects_non_monotone() {
+        // Pt100 rows from IEC 60751 (0, 100, 200 °C).
+        let t = ResistanceTable::new(
+            vec![T0C, T0C + 100.0, T0C + 200.0],
+            vec![100.0, 138.51, 175.86],
+        )
+        .unwrap();
+        let law = ResistanceLaw::Table(t);
+        assert_eq!(law.valid_range_k(), (T0C, T0C + 200.0));
+        assert_relative_eq!(
+            law.resistance_ohm(T0C + 100.0),
+            138.51,
+            max_relative = 1e-12
+        );
+        assert!(law.derivative_ohm_per_k(T0C + 50.0) > 0.0);
+        let bad = ResistanceTable::new(vec![300.0, 310.0, 320.0], vec![100.0, 104.0, 103.0]);
+        let msg = bad.unwrap_err().to_string();
+        assert!(msg.contains("y[2]"), "{msg}");
+    }
+
+    #[test]
+    fn tungsten_ratio_follows_forsythe_worthing() {
+        // Forsythe & Worthing (1925): ρ(1000 K)/ρ(300 K) = 24.93/5.65.
+        let law = ResistanceLaw::Tungsten(TungstenWire::new(1.0, 300.0).unwrap());
+        assert_relative_eq!(
+            law.resistance_ohm(1000.0),
+            24.93 / 5.65,
+            max_relative = 1e-9
+        );
+        assert_eq!(law.valid_range_k(), (273.15, 3500.0));
     }
 }
