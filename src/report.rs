@@ -134,6 +134,9 @@ pub struct DriftRow {
     pub tripped_in_still_air: bool,
     /// What happens, in words.
     pub note: String,
+    /// A what-if row for the ratiometric comparison, not a condition the
+    /// design meets in service (left out of the drift checks).
+    pub comparison_only: bool,
 }
 
 /// Supply-current budget.
@@ -149,6 +152,20 @@ pub struct SupplyBudget {
     pub regulator_junction_c: Option<f64>,
 }
 
+/// King's-law constants equivalent to a non-King cooling law around the
+/// operating point.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct EquivalentKing {
+    /// A, still-air conductance, W/K.
+    pub a_w_per_k: f64,
+    /// B, conductance added at 1 m/s, W/K.
+    pub b_w_per_k: f64,
+    /// n, airflow exponent.
+    pub n: f64,
+    /// Element temperature the fit was made at, °C.
+    pub at_temperature_c: f64,
+}
+
 /// The whole report.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Report {
@@ -162,6 +179,9 @@ pub struct Report {
     pub ambient_c: f64,
     /// Air pressure, Pa.
     pub pressure_pa: f64,
+    /// King's-law constants equivalent to the cooling model around the trip
+    /// point (absent when the cooling law is King's law itself).
+    pub equivalent_kings_law: Option<EquivalentKing>,
     /// Operating points: still air, ½·trip, trip, 2·trip (at nominal ambient).
     pub operating_points: Vec<OperatingPointRow>,
     /// The trip point.
@@ -174,6 +194,8 @@ pub struct Report {
     pub supply: SupplyBudget,
     /// Checks.
     pub checks: Vec<Check>,
+    /// Where a model is used outside its published range, with what to do.
+    pub warnings: Vec<String>,
     /// Cautions that apply.
     pub cautions: Vec<String>,
     /// Defaults applied and modelling assumptions.

@@ -322,9 +322,16 @@ fn trimmer_that_cannot_reach_the_target_fails_the_design() {
 
 #[test]
 fn given_trimmer_position_is_analysed_as_it_is() {
-    let text = greenhouse().replace("bottom = \"auto\"", "bottom = \"auto\"\ntrimmer_position = \"45 %\"");
+    let text = greenhouse().replace(
+        "bottom = \"auto\"",
+        "bottom = \"auto\"\ntrimmer_position = \"45 %\"",
+    );
     let path = write_design("given-position", &text);
-    let out = draftwire().args(["size", "--format", "json"]).arg(&path).output().unwrap();
+    let out = draftwire()
+        .args(["size", "--format", "json"])
+        .arg(&path)
+        .output()
+        .unwrap();
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
     assert!((v["trip"]["trimmer_position_percent"].as_f64().unwrap() - 45.0).abs() < 1e-9);
     assert_ne!(v["trip"]["airflow_m_per_s"].as_f64().unwrap(), 0.5);

@@ -296,12 +296,14 @@ pub fn core_checks(design: &Design, core: &SizedCore) -> Vec<Check> {
         },
     });
     if let Some(t_max) = core.element.max_temperature_k() {
-        let t = core.still_air.temperature_k;
+        // Hottest case: still air at the highest ambient, the element rail
+        // at its highest and the drive at the tolerance end that heats most.
+        let (t, how) = hottest_still_air(design, core);
         c.push(Check {
             name: "element temperature within its limit".into(),
             passed: t <= t_max,
             detail: format!(
-                "{:.1} °C in still air against a limit of {:.1} °C (margin {:.1} K)",
+                "{:.1} °C in still air ({how}) against a limit of {:.1} °C (margin {:.1} K)",
                 t - 273.15,
                 t_max - 273.15,
                 t_max - t
@@ -362,7 +364,17 @@ pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
             "Hot surface: the element runs at about {t_c:.0} °C in still air. Do not touch it while powered; mount it where fingers and loose material cannot reach it."
         ));
     }
-    if t_c >= 300.0 {
+    let tungsten = matches!(
+        design.element.resistance_law(),
+        crate::element::ResistanceLaw::Tungsten(_)
+    );
+    if tungsten {
+        v.push(
+            "A filament taken from a lamp is fragile and its glass can shatter: wear eye protection when opening the envelope, and keep the bare filament in a guard."
+                .into(),
+        );
+    }
+    if t_c >= 300.0 || tungsten {
         v.push(
             "A bare metal filament (tungsten above all) oxidises quickly in air above a few hundred °C and is fragile: run it cooler or keep it sealed, and expect drift and failure."
                 .into(),
@@ -387,4 +399,39 @@ pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
     v.push("Not a medical or life-safety device: breath, sleep or patient monitoring needs certified equipment.".into());
     v.push("These figures are design estimates: follow local codes and licensed practice, and verify the build on the bench.".into());
     v
+}
+
+/// Element temperature in still air in the hottest condition the design
+/// allows, with a few words saying which condition that is. Falls back to
+/// the nominal still-air point when the hot corner has no steady state.
+fn hottest_still_air(design: &Design, core: &SizedCore) -> (f64, String) {
+    use super::size::{drive_with, element_rail};
+    let value = match core.drive {
+        Drive::SeriesResistor { series_ohm, .. } => series_ohm,
+        Drive::ConstantCurrent { current_a } => current_a,
+    };
+    let rail_hi = element_rail(design).map_or(0.0, |r| design.supply.rail_range_v(r).1);
+    let env = crate::element::Environment {
+        ambient_k: design.ambient.max_k,
+        ..core.env
+    };
+    let mut best = (
+        core.still_air.temperature_k,
+        "nominal ambient and supply".to_string(),
+    );
+    for f in [1.0 - design.drive_tolerance, 1.0 + design.drive_tolerance] {
+        let drive = drive_with(&design.drive, value * f, rail_hi);
+        if let Ok(p) = crate::solve::operating_point(&core.element, &drive, &env, 0.0) {
+            if p.temperature_k > best.0 {
+                best = (
+                    p.temperature_k,
+                    format!(
+                        "ambient {:.1} °C, highest rail, drive at its tolerance end",
+                        to_c(env.ambient_k)
+                    ),
+                );
+            }
+        }
+    }
+    best
 }

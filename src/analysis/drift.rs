@@ -6,7 +6,7 @@ use super::size::{drive_with, element_rail, SizedCore};
 use crate::circuit::frontend::FrontEnd;
 use crate::design::model::{Design, Rail, TripDirection};
 use crate::element::Environment;
-use crate::report::DriftRow;
+use crate::report::{Check, DriftRow};
 use crate::solve::{airflow_for_sense, operating_point};
 
 /// One drift condition: ambient and the two rails.
@@ -102,7 +102,7 @@ pub fn drift(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
     };
     let u_nom = core.trip_airflow_m_per_s;
     let mut rows = Vec::new();
-    let mut push = |label: String, c: Condition| {
+    let mut push = |label: String, c: Condition, comparison_only: bool| {
         let (u, tripped) = evaluate(design, core, c);
         rows.push(DriftRow {
             condition: label,
@@ -113,9 +113,10 @@ pub fn drift(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
             shift_m_per_s: u.map(|u| u - u_nom),
             tripped_in_still_air: tripped,
             note: note(design, u, tripped, u_nom),
+            comparison_only,
         });
     };
-    push("nominal".into(), nominal);
+    push("nominal".into(), nominal, false);
     for (label, t) in [
         ("ambient min", design.ambient.min_k),
         ("ambient max", design.ambient.max_k),
@@ -127,6 +128,7 @@ pub fn drift(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
                     ambient_k: t,
                     ..nominal
                 },
+                false,
             );
         }
     }
@@ -140,16 +142,35 @@ pub fn drift(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
             lo
         }
     };
-    for hi in [false, true] {
+    // Supply: each rail moves over its own range. The same rail moves as
+    // one; two different rails (input and regulated) move independently,
+    // so all four pairings of their ends are tried.
+    let shared = el_rail == Some(ref_rail) || el_rail.is_none();
+    let pairs: &[(bool, bool)] = if shared {
+        &[(false, false), (true, true)]
+    } else {
+        &[(false, false), (false, true), (true, false), (true, true)]
+    };
+    let end = |hi: bool| if hi { "high" } else { "low" };
+    for &(el_hi, ref_hi) in pairs {
         let c = Condition {
-            element_rail_v: el_rail.map_or(0.0, |r| rail_v(r, hi)),
-            reference_rail_v: rail_v(ref_rail, hi),
+            element_rail_v: el_rail.map_or(0.0, |r| rail_v(r, el_hi)),
+            reference_rail_v: rail_v(ref_rail, ref_hi),
             ..nominal
         };
         if c.element_rail_v != nominal.element_rail_v
             || c.reference_rail_v != nominal.reference_rail_v
         {
-            push(format!("supply {}", if hi { "high" } else { "low" }), c);
+            let label = if shared {
+                format!("supply {}", end(ref_hi))
+            } else {
+                format!(
+                    "element rail {}, reference rail {}",
+                    end(el_hi),
+                    end(ref_hi)
+                )
+            };
+            push(label, c, false);
         }
     }
     // Ratiometric comparison: the element rail at its low end with the
@@ -169,6 +190,7 @@ pub fn drift(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
             push(
                 format!("element rail low ({lo:.2} V), reference tracking it (ratiometric)"),
                 same,
+                er != ref_rail,
             );
             push(
                 format!(
@@ -178,8 +200,68 @@ pub fn drift(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
                     element_rail_v: lo,
                     ..nominal
                 },
+                er == ref_rail,
             );
         }
     }
     rows
+}
+
+/// Whether the output is idle at the normal airflow under a drift row's
+/// condition, and whether the detector still trips at all there.
+fn row_verdict(design: &Design, row: &DriftRow) -> (bool, bool) {
+    let normal = design.detector.normal_airflow_m_per_s;
+    match (design.detector.trip_on, row.trip_airflow_m_per_s) {
+        // Rising: tripped above the trip airflow.
+        (TripDirection::Rising, Some(u)) => (u > normal, true),
+        (TripDirection::Rising, None) => (!row.tripped_in_still_air, row.tripped_in_still_air),
+        // Falling: tripped below the trip airflow.
+        (TripDirection::Falling, Some(u)) => (u < normal, u > 0.0),
+        (TripDirection::Falling, None) => (!row.tripped_in_still_air, row.tripped_in_still_air),
+    }
+}
+
+/// Checks across the drift conditions: no false trip at the normal
+/// airflow, and the detector still trips.
+pub fn drift_checks(design: &Design, rows: &[DriftRow]) -> Vec<Check> {
+    let normal = design.detector.normal_airflow_m_per_s;
+    let mut false_trips = Vec::new();
+    let mut dead = Vec::new();
+    for r in rows.iter().filter(|r| !r.comparison_only) {
+        let (idle_ok, trips) = row_verdict(design, r);
+        if !idle_ok {
+            false_trips.push(r.condition.clone());
+        }
+        if !trips {
+            dead.push(r.condition.clone());
+        }
+    }
+    let normal_text = if normal == 0.0 {
+        "in still air".to_string()
+    } else {
+        format!("at the normal airflow ({normal} m/s)")
+    };
+    vec![
+        Check {
+            name: "no false trip at the normal airflow".into(),
+            passed: false_trips.is_empty(),
+            detail: if false_trips.is_empty() {
+                format!("the output stays idle {normal_text} at every ambient and supply end")
+            } else {
+                format!(
+                    "tripped {normal_text} at: {} — the trip point drifts past the normal airflow; more overheat, a narrower ambient range or ambient compensation would help",
+                    false_trips.join(", ")
+                )
+            },
+        },
+        Check {
+            name: "still trips at every ambient and supply end".into(),
+            passed: dead.is_empty(),
+            detail: if dead.is_empty() {
+                "a trip point exists in every condition".into()
+            } else {
+                format!("never trips at: {}", dead.join(", "))
+            },
+        },
+    ]
 }

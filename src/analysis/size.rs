@@ -56,7 +56,10 @@ pub enum SizeError {
         resistance_ohm: f64,
     },
     /// The wanted overheat lies outside the element law's range.
-    #[error("the wanted overheat puts the element at {resistance_ohm:.4} ohm, which its resistance law never reaches")]
+    #[error(
+        "the wanted overheat puts the element at {resistance_ohm:.4} ohm, which its resistance law does not reach \
+         above ambient and inside its valid range; ask for less overheat"
+    )]
     OverheatUnreachable {
         /// Resistance asked for.
         resistance_ohm: f64,
@@ -150,11 +153,32 @@ fn size_drive(design: &Design, env: &Environment) -> Result<(f64, Option<f64>), 
         match *overheat {
             OverheatTarget::Rise(rise) => Ok(env.ambient_k + rise),
             OverheatTarget::Ratio(a) => {
-                let r = law.resistance_ohm(env.ambient_k) * (1.0 + a);
+                // The overheat ratio is the fractional change of resistance
+                // from ambient: R_hot = R_amb·(1 + a) for a metal, and
+                // R_hot = R_amb·(1 − a) for an NTC, whose resistance falls.
+                let factor = if law.is_increasing() {
+                    1.0 + a
+                } else {
+                    1.0 - a
+                };
+                let r = law.resistance_ohm(env.ambient_k) * factor;
+                if factor <= 0.0 {
+                    return Err(SizeError::OverheatUnreachable { resistance_ohm: r });
+                }
                 law.temperature_for_resistance(r)
                     .ok_or(SizeError::OverheatUnreachable { resistance_ohm: r })
             }
         }
+        .and_then(|t| {
+            let (_, hi) = law.valid_range_k();
+            if t > env.ambient_k && t <= hi {
+                Ok(t)
+            } else {
+                Err(SizeError::OverheatUnreachable {
+                    resistance_ohm: law.resistance_ohm(t.min(hi)),
+                })
+            }
+        })
     };
     let needed = |t: f64| {
         // Still-air heat loss at T fixes the power, hence the current: I = √(P/R).

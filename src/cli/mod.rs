@@ -2,6 +2,8 @@
 //! write, and map the outcome to an exit status (0 pass, 1 a design check
 //! failed, 2 bad input or usage).
 
+mod compare;
+
 use clap::{Parser, Subcommand, ValueEnum};
 use draftwire::design::parse_design;
 use draftwire::render;
@@ -30,6 +32,17 @@ enum Command {
         /// Which table to write with --format csv.
         #[arg(long, value_enum, default_value_t = CsvTable::Values)]
         table: CsvTable,
+    },
+    /// Compare candidate elements side by side in the design's drive and detector.
+    Compare {
+        /// The design file (TOML); its own element is the first candidate.
+        design: PathBuf,
+        /// Files of candidates: design files or files of [[candidate]] tables.
+        #[arg(long = "candidates", num_args = 1..)]
+        candidates: Vec<PathBuf>,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
     },
 }
 
@@ -101,6 +114,11 @@ pub fn run() -> ExitCode {
             format,
             table,
         } => size(&design, format, table),
+        Command::Compare {
+            design,
+            candidates,
+            format,
+        } => compare::run(&design, &candidates, format),
     }
 }
 

@@ -163,6 +163,8 @@ impl Supply {
 pub struct Detector {
     /// Target trip airflow, m/s.
     pub trip_airflow_m_per_s: f64,
+    /// Airflow when all is well, m/s: the output must stay idle there.
+    pub normal_airflow_m_per_s: f64,
     /// Trip direction.
     pub trip_on: TripDirection,
     /// Rail of the reference divider.
@@ -942,8 +944,46 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     };
     let feedback_ohm = sz(rd, &t.feedback, "detector.feedback")?;
     let input_resistor_ohm = sz(rd, &t.input_resistor, "detector.input_resistor")?;
+    let normal_airflow_m_per_s = match &t.normal_airflow {
+        Some(v) => {
+            let u = rd.non_negative(v, "detector.normal_airflow", Dimension::Velocity)?;
+            let wrong_side = match trip_on {
+                TripDirection::Rising => u >= trip_airflow_m_per_s,
+                TripDirection::Falling => u <= trip_airflow_m_per_s,
+            };
+            if wrong_side {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "detector.normal_airflow",
+                    format!(
+                        "a detector that trips on {} airflow needs its normal airflow {} the trip airflow ({trip_airflow_m_per_s} m/s), found {u} m/s",
+                        trip_on.name(),
+                        if trip_on == TripDirection::Rising { "below" } else { "above" }
+                    ),
+                ));
+            }
+            u
+        }
+        None => match trip_on {
+            TripDirection::Rising => {
+                rd.assumptions.push(
+                    "detector.normal_airflow not given: still air (0 m/s) is the normal state"
+                        .into(),
+                );
+                0.0
+            }
+            TripDirection::Falling => {
+                rd.assumptions.push(format!(
+                    "detector.normal_airflow not given: twice the trip airflow ({} m/s) taken as the normal running airflow",
+                    2.0 * trip_airflow_m_per_s
+                ));
+                2.0 * trip_airflow_m_per_s
+            }
+        },
+    };
     let detector = Detector {
         trip_airflow_m_per_s,
+        normal_airflow_m_per_s,
         trip_on,
         reference_rail,
         top_ohm,

@@ -249,6 +249,8 @@ pub struct RawDrive {
 pub struct RawDetector {
     /// Target trip airflow.
     pub trip_airflow: Value,
+    /// Airflow when all is well (fan running, door shut).
+    pub normal_airflow: Option<Value>,
     /// `rising` or `falling`.
     pub trip_on: Word,
     /// Rail the reference divider hangs from.

@@ -75,6 +75,16 @@ pub fn render(r: &Report, file: &str) -> String {
         r.ambient_c,
         r.pressure_pa / 1000.0
     );
+    if let Some(k) = &r.equivalent_kings_law {
+        let _ = writeln!(
+            out,
+            "King's law    G(U) ≈ {} + {}·Uⁿ, n = {:.3} (equivalent around {:.0} °C, U in m/s)",
+            eng(k.a_w_per_k, "W/K"),
+            eng(k.b_w_per_k, "W/K"),
+            k.n,
+            k.at_temperature_c
+        );
+    }
     let verdict = if r.passed() {
         "PASS: every check passed".to_string()
     } else {
@@ -173,8 +183,11 @@ pub fn render(r: &Report, file: &str) -> String {
             tr.trimmer_position_percent
         ),
     );
-    let ends =
-        |u: Option<f64>| u.map_or("out of reach (0–100 m/s)".to_string(), |u| format!("{u:.3} m/s"));
+    let ends = |u: Option<f64>| {
+        u.map_or("out of reach (0–100 m/s)".to_string(), |u| {
+            format!("{u:.3} m/s")
+        })
+    };
     kv(
         &mut out,
         "trimmer range",
@@ -290,6 +303,13 @@ pub fn render(r: &Report, file: &str) -> String {
             c.name,
             c.detail
         );
+    }
+
+    if !r.warnings.is_empty() {
+        heading(&mut out, "Warnings");
+        for w in &r.warnings {
+            let _ = writeln!(out, "  ? {w}");
+        }
     }
 
     heading(&mut out, "Cautions");
