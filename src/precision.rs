@@ -22,3 +22,8 @@ pub const ENERGY_BALANCE_REL_TOL: f64 = 1e-9;
 /// Relative step used for central finite differences of smooth physics
 /// functions (derivatives of losses and electrical power with temperature).
 pub const FD_REL_STEP: f64 = 1e-6;
+
+/// Iterations of the golden-section search used by the King's-law
+/// equivalent fit (each shrinks the interval by 0.618; 80 reach the
+/// resolution of f64 on [0.05, 1]).
+pub const GOLDEN_SECTION_ITERATIONS: usize = 80;

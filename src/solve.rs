@@ -186,7 +186,9 @@ fn residual_slope(element: &Element, drive: &Drive, env: &Environment, u: f64, t
 /// Solve the steady energy balance at airflow `airflow_m_per_s`.
 ///
 /// Returns the first root above ambient — the one an element warming from
-/// cold settles at, which is always stable because `f(T_amb) ≤ 0` — with
+/// cold settles at, which is stable because `f(T_amb) ≤ 0` makes the
+/// residual cross upward there (only a tangential double root, which the
+/// scan cannot resolve, would be marginal) — with
 /// every root found recorded in [`OperatingPoint::roots`].
 pub fn operating_point(
     element: &Element,

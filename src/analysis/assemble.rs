@@ -323,6 +323,8 @@ pub fn core_checks(design: &Design, core: &SizedCore) -> Vec<Check> {
     });
     c.push(Check {
         name: "trimmer near mid-travel".into(),
+        // draftwire's window for "near mid-travel" (no source): a quarter of
+        // the travel either side leaves room to trim both ways.
         passed: (0.25..=0.75).contains(&x),
         detail: format!("{:.1} % of travel (wanted 25–75 %)", 100.0 * x),
     });
@@ -374,6 +376,9 @@ pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
                 .into(),
         );
     }
+    // Keep a bare element to a few hundred °C in air (common practice, no
+    // source; bare tungsten oxidises quickly above roughly 400 °C): warn
+    // from 300 °C for any metal, and always for tungsten.
     if t_c >= 300.0 || tungsten {
         v.push(
             "A bare metal filament (tungsten above all) oxidises quickly in air above a few hundred °C and is fragile: run it cooler or keep it sealed, and expect drift and failure."

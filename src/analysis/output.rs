@@ -78,16 +78,17 @@ struct Plan {
 }
 
 fn transistor(design: &Design) -> TransistorRatings {
-    let t = design.output.as_ref().map(|o| o.transistor).unwrap_or(
+    let t = design.output.as_ref().map(|o| o.transistor).unwrap_or({
+        let p = TransistorRatings::typical_small_signal();
         crate::design::model::TransistorSpec {
-            vce_max_v: 40.0,
-            ic_max_a: 0.2,
-            power_max_w: 0.5,
-            hfe_min: 100.0,
-            vce_sat_v: 0.2,
-            vbe_on_v: 0.7,
-        },
-    );
+            vce_max_v: p.vce_max_v,
+            ic_max_a: p.ic_max_a,
+            power_max_w: p.p_max_w,
+            hfe_min: p.hfe_min,
+            vce_sat_v: p.vce_sat_v,
+            vbe_on_v: p.vbe_on_v,
+        }
+    });
     TransistorRatings {
         vce_max_v: t.vce_max_v,
         ic_max_a: t.ic_max_a,
@@ -1006,9 +1007,8 @@ fn rate_resistors(
 
 /// Currents drawn from (input, regulated) rails in an output state, at the
 /// nominal rails or at each rail's highest voltage. Element current: the
-/// largest in the operating-point table; at the highest rail it is scaled by
-/// V_max/V_nom, an upper bound because heating only raises a
-/// positive-coefficient element's resistance.
+/// largest over the operating-point table's airflows, solved again at the
+/// rail voltage in question.
 fn rail_currents(
     design: &Design,
     core: &SizedCore,
@@ -1036,13 +1036,31 @@ fn rail_currents(
         }
     };
     // Element.
-    let i_el = core
-        .table
-        .iter()
-        .map(|(_, p)| p.current_a)
-        .fold(0.0, f64::max);
     match (element_rail(design), core.drive) {
-        (Some(rail), Drive::SeriesResistor { rail_v, .. }) => add(rail, i_el * v_of(rail) / rail_v),
+        (Some(rail), Drive::SeriesResistor { series_ohm, .. }) => {
+            // Solve the element again at this rail voltage at every airflow
+            // of the table and take the largest current; if a solve fails,
+            // the series resistor alone bounds it (element shorted).
+            let v = v_of(rail);
+            let drive = Drive::SeriesResistor {
+                rail_v: v,
+                series_ohm,
+            };
+            let i = core
+                .table
+                .iter()
+                .map(|(_, p)| {
+                    crate::solve::operating_point(
+                        &core.element,
+                        &drive,
+                        &core.env,
+                        p.airflow_m_per_s,
+                    )
+                    .map_or(v / series_ohm, |q| q.current_a)
+                })
+                .fold(0.0, f64::max);
+            add(rail, i)
+        }
         (_, Drive::ConstantCurrent { current_a }) => add(
             if has_reg {
                 Rail::Regulated

@@ -441,7 +441,9 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
             Sizable::Fixed(r) => r,
             Sizable::Auto => {
                 // Keep the bias-current error I_b·R_in below half the input
-                // offset (draftwire's rule), within 1 kΩ … 100 kΩ.
+                // offset (draftwire's own rule, no source), within 1 kΩ …
+                // 100 kΩ (common practice for comparator input resistors,
+                // no source).
                 let r = (0.5 * design.comparator.offset_v / design.comparator.bias_a.max(1e-12))
                     .clamp(1e3, 100e3);
                 design.e_series.at_or_below(r)
@@ -546,6 +548,9 @@ pub fn trimmer_position(front: &FrontEnd, idle: OutputState, v_t: f64, sense_src
     }
 }
 
+/// Largest feedback resistor the hysteresis search considers, ohm.
+pub const MAX_FEEDBACK_OHM: f64 = 100e6;
+
 /// Band reported for a feedback so strong that the release level lies
 /// beyond any airflow (keeps the band function finite and monotone), m/s.
 const BAND_BEYOND_RANGE: f64 = 1e3;
@@ -593,7 +598,9 @@ fn size_feedback(
     // sheet SNOSDA4D, hysteresis section: "RPU should be at least 10x less
     // than R2").
     let rf_min = MIN_FEEDBACK_TO_PULLUP_RATIO * front.output_high.1;
-    let (lo, hi) = (rf_min.ln(), 100e6f64.ln());
+    // Above about 100 MΩ board leakage competes with the feedback current
+    // (common practice, no source): the search stops there.
+    let (lo, hi) = (rf_min.ln(), MAX_FEEDBACK_OHM.ln());
     let b_lo = band(lo)?;
     let b_hi = band(hi)?;
     let unit = if matches!(want, HysteresisSpec::Volts(_)) {
@@ -609,7 +616,7 @@ fn size_feedback(
         )));
     }
     if target < b_hi {
-        return Ok(100e6);
+        return Ok(MAX_FEEDBACK_OHM);
     }
     let mut failure = None;
     let r = brent(
@@ -632,7 +639,7 @@ fn size_feedback(
 
 /// Trimmer values available (for the docs and the report).
 pub fn trimmer_values() -> &'static [f64] {
-    &STANDARD_TRIMMER_OHM
+    STANDARD_TRIMMER_OHM
 }
 
 /// Nearest value helper for other modules.

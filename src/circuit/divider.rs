@@ -35,10 +35,7 @@ pub enum DividerError {
     },
 }
 
-/// Trimmer values in the 1-2-5 sequence (common practice, no source), ohm.
-pub const STANDARD_TRIMMER_OHM: [f64; 13] = [
-    100.0, 200.0, 500.0, 1e3, 2e3, 5e3, 10e3, 20e3, 50e3, 100e3, 200e3, 500e3, 1e6,
-];
+pub use super::ratings::STANDARD_TRIMMER_OHM;
 
 /// Extra trimmer span beyond the computed need, to absorb the trimmer's own
 /// tolerance (typically ±20 % on end-to-end resistance; common practice,
@@ -103,6 +100,8 @@ impl Divider {
         trimmer: Option<f64>,
         bottom: Option<f64>,
     ) -> Result<(Divider, (f64, f64)), DividerError> {
+        // At least ±1 % of the wanted ratio, so a design with no tolerances
+        // still gets a trimmer that can trim (draftwire's choice, no source).
         let half = (k_mid - k_low).max(k_high - k_mid).max(0.01 * k_mid) * TRIMMER_SPAN_MARGIN;
         let (lo, hi) = (k_mid - half, k_mid + half);
         let any_fixed = top.is_some() || trimmer.is_some() || bottom.is_some();

@@ -619,7 +619,8 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
                     format!("expected an altitude between -500 m and 11000 m (troposphere), found {h_m} m"),
                 ));
             }
-            standard_atmosphere_pressure_pa(h_m)
+            crate::physics::air::pressure_at_altitude_pa(h_m)
+                .map_err(|e| rd.err(Some(h.span()), "ambient.altitude", e.to_string()))?
         }
         (Some(_), Some(h)) => {
             return Err(rd.err(
@@ -683,7 +684,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
                 "supply.regulator.quiescent",
                 Dimension::Current,
             )?;
-            let tolerance = rd.or_default(&g.tolerance, 0.05, "supply.regulator.tolerance not given: ±5 % assumed (typical of fixed linear regulators)", |r, v| {
+            let tolerance = rd.or_default(&g.tolerance, crate::circuit::regulator::LinearRegulator::typical_fixed_5v().output_tolerance, "supply.regulator.tolerance not given: ±4 % assumed (typical of the fixed linear regulator class)", |r, v| {
                 r.fraction_in(v, "supply.regulator.tolerance", 0.0, 0.5)
             })?;
             let theta_ja_k_per_w = rd.or_default(
@@ -1043,13 +1044,6 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     })
 }
 
-/// Pressure of the U.S. Standard Atmosphere 1976 in the troposphere:
-/// `p = 101325·(1 − 0.0065·h/288.15)^5.25588` Pa, h in m (NOAA/NASA/USAF,
-/// *U.S. Standard Atmosphere, 1976*, eq. 33a with the tabulated lapse rate).
-pub fn standard_atmosphere_pressure_pa(altitude_m: f64) -> f64 {
-    101_325.0 * (1.0 - 0.0065 * altitude_m / 288.15).powf(5.255_88)
-}
-
 fn build_comparator(
     rd: &mut Reader<'_>,
     c: Option<&raw::RawComparator>,
@@ -1284,15 +1278,18 @@ fn build_output(rd: &mut Reader<'_>, o: &raw::RawOutput, has_reg: bool) -> R<Out
     let transistor = match &o.transistor {
         None => {
             if stage != StageKind::Direct {
-                rd.assumptions.push("no [output.transistor]: typical small-signal transistor figures used (Vce 40 V, Ic 200 mA, 500 mW, hFE ≥ 100, Vce(sat) 0.2 V, Vbe 0.7 V)".into());
+                rd.assumptions.push("no [output.transistor]: typical small-signal transistor figures used (Vce 40 V, Ic 200 mA, 500 mW, hFE ≥ 100, Vce(sat) 0.3 V, Vbe 0.7 V)".into());
             }
-            TransistorSpec {
-                vce_max_v: 40.0,
-                ic_max_a: 0.2,
-                power_max_w: 0.5,
-                hfe_min: 100.0,
-                vce_sat_v: 0.2,
-                vbe_on_v: 0.7,
+            {
+                let t = crate::circuit::switch::TransistorRatings::typical_small_signal();
+                TransistorSpec {
+                    vce_max_v: t.vce_max_v,
+                    ic_max_a: t.ic_max_a,
+                    power_max_w: t.p_max_w,
+                    hfe_min: t.hfe_min,
+                    vce_sat_v: t.vce_sat_v,
+                    vbe_on_v: t.vbe_on_v,
+                }
             }
         }
         Some(t) => {

@@ -513,7 +513,7 @@ impl CoolingLaw {
         let mut x1 = hi - phi * (hi - lo);
         let mut x2 = lo + phi * (hi - lo);
         let (mut f1, mut f2) = (solve(x1).2, solve(x2).2);
-        for _ in 0..80 {
+        for _ in 0..crate::precision::GOLDEN_SECTION_ITERATIONS {
             if f1 <= f2 {
                 hi = x2;
                 x2 = x1;

@@ -18,8 +18,8 @@ pub struct Environment {
     pub pressure_pa: f64,
 }
 
-/// Standard atmospheric pressure, 101 325 Pa (ISO 2533:1975, standard atmosphere).
-pub const STANDARD_PRESSURE_PA: f64 = 101_325.0;
+/// Standard atmospheric pressure (re-exported from the air model).
+pub use crate::physics::air::STANDARD_PRESSURE_PA;
 
 impl Environment {
     /// Air at `ambient_k` and standard pressure.

@@ -339,7 +339,7 @@ impl ResistanceLaw {
     /// Whether the resistance rises with temperature (metals, PTC).
     pub fn is_increasing(&self) -> bool {
         let (lo, hi) = self.valid_range_k();
-        let mid = 0.5 * (lo + hi).min(lo + 600.0);
+        let mid = (0.5 * (lo + hi)).min(lo + 600.0);
         self.derivative_ohm_per_k(mid) > 0.0
     }
 }

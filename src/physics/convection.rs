@@ -541,7 +541,8 @@ mod tests {
 
     #[test]
     fn collis_williams_branches_meet_at_44() {
-        // Collis & Williams (1959) as in SOURCES: at Re = 44,
+        // D. C. Collis & M. J. Williams, J. Fluid Mech. 6 (1959) 357–384
+        // (coefficients from memory): at Re = 44,
         // low branch 0.24 + 0.56·44^0.45 = 3.3145,
         // high branch 0.48·44^0.51 = 3.3069 — within 0.5 % (0.23 %).
         let low = 0.24 + 0.56 * 44f64.powf(0.45);

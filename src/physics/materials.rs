@@ -80,7 +80,7 @@ const NICKEL: Props = Props {
     name: "nickel",
     tcr_per_k: 0.0060,
     tcr_reference_temperature_k: 293.15,
-    tcr_source: "0.0059–0.0068 /K near 20 °C depending on grade; lower end taken for commercially pure wire (common practice, no source)",
+    tcr_source: "0.0059–0.0068 /K near 20 °C depending on grade; 0.0060 taken, near the lower end, for commercially pure wire (memory; common practice, no source)",
     resistivity_ohm_m_at_20c: 6.93e-8,
     density_kg_per_m3: 8900.0,
     specific_heat_j_per_kg_k: 444.0,
