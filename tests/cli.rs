@@ -336,3 +336,81 @@ fn given_trimmer_position_is_analysed_as_it_is() {
     assert!((v["trip"]["trimmer_position_percent"].as_f64().unwrap() - 45.0).abs() < 1e-9);
     assert_ne!(v["trip"]["airflow_m_per_s"].as_f64().unwrap(), 0.5);
 }
+
+fn manifest(p: &str) -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR")).join(p)
+}
+
+#[test]
+fn compare_puts_candidates_side_by_side() {
+    let out = draftwire()
+        .arg("compare")
+        .arg(manifest("examples/duct-platinum-wire.toml"))
+        .arg("--candidates")
+        .arg(manifest("examples/candidates/element-candidates.toml"))
+        .output()
+        .unwrap();
+    let text = String::from_utf8(out.stdout).unwrap();
+    for label in [
+        "nickel wire 25 um",
+        "NTC bead 1k",
+        "Pt100 chip",
+        "trip drift m/s per K",
+        "safe in air",
+    ] {
+        assert!(text.contains(label), "missing '{label}' in:\n{text}");
+    }
+    // The example's Pt100 chip cannot be driven from 5 V: reported, exit 1.
+    assert!(text.contains("Pt100 chip: FAILED"));
+    assert_eq!(out.status.code(), Some(1));
+}
+
+#[test]
+fn compare_json_and_csv_carry_units_in_their_keys() {
+    let args = |fmt: &str| {
+        let mut c = draftwire();
+        c.arg("compare")
+            .arg(manifest("examples/duct-platinum-wire.toml"))
+            .arg("--candidates")
+            .arg(manifest("examples/candidates/element-candidates.toml"))
+            .args(["--format", fmt]);
+        c
+    };
+    let out = args("json").output().unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let rows = v["rows"].as_array().unwrap();
+    assert_eq!(
+        rows.len(),
+        4,
+        "the design's own element and three candidates"
+    );
+    for key in [
+        "still_air_temperature_c",
+        "still_air_power_w",
+        "sensitivity_v_per_m_per_s",
+        "trip_drift_m_per_s_per_k",
+        "time_constant_s",
+    ] {
+        assert!(rows[0][key].is_number(), "rows[0].{key}");
+    }
+    assert!(rows[3]["error"].is_string());
+    args("csv").assert().stdout(predicate::str::starts_with(
+        "label,element,tolerance_percent",
+    ));
+}
+
+#[test]
+fn compare_rejects_a_bad_candidates_file() {
+    let path = write_design(
+        "bad-candidates",
+        "[[candidate]]\nlabel = \"x\"\nmaterial = \"nikel\"\n",
+    );
+    draftwire()
+        .arg("compare")
+        .arg(manifest("examples/duct-platinum-wire.toml"))
+        .arg("--candidates")
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("design.toml:"));
+}
