@@ -149,6 +149,33 @@ pub fn brent_with<F: FnMut(f64) -> f64>(
     }
 }
 
+/// Brent's method on a function that can fail. The first failure stops the
+/// search (the remaining steps see NaN and end it) and is returned as the
+/// outer `Err`; the inner result is the root search's own outcome. Keeps the
+/// solve allocation-free: the failure is carried out through a flag.
+pub fn brent_fallible<E, F: FnMut(f64) -> Result<f64, E>>(
+    mut f: F,
+    a: f64,
+    b: f64,
+) -> Result<Result<Root, RootError>, E> {
+    let mut failure: Option<E> = None;
+    let root = brent(
+        |x| match f(x) {
+            Ok(v) => v,
+            Err(e) => {
+                failure.get_or_insert(e);
+                f64::NAN
+            }
+        },
+        a,
+        b,
+    );
+    match failure {
+        Some(e) => Err(e),
+        None => Ok(root),
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -166,6 +193,21 @@ mod tests {
         let r = brent(|x| x.cos() - x, 0.0, 1.0).unwrap();
         assert!((r.x - 0.739_085_133_215_160_7).abs() < 1e-12);
         assert!(r.evaluations < 20);
+    }
+
+    #[test]
+    fn fallible_search_returns_the_function_failure() {
+        // Invariant: a failure inside the search comes out as the outer error.
+        let r = brent_fallible(
+            |x| if x > 1.5 { Err("too far") } else { Ok(x - 1.0) },
+            0.0,
+            2.0,
+        );
+        assert_eq!(r, Err("too far"));
+        let ok = brent_fallible(|x| Ok::<f64, ()>(x * x - 2.0), 0.0, 2.0)
+            .unwrap()
+            .unwrap();
+        assert!((ok.x - std::f64::consts::SQRT_2).abs() < 1e-12);
     }
 
     #[test]

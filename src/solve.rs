@@ -15,7 +15,7 @@
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
 use crate::precision::SCAN_INTERVALS;
-use crate::roots::{brent, RootError};
+use crate::roots::{brent, brent_fallible, RootError};
 
 /// Most roots a solve records (a physical element has at most three).
 pub const MAX_ROOTS: usize = 4;
@@ -38,7 +38,8 @@ pub enum SolveError {
     /// temperature the element's law allows: thermal runaway.
     #[error(
         "thermal runaway: at {upper_k:.1} K (the top of the element's valid range) the element still takes \
-         {power_w:.4} W but loses only {loss_w:.4} W, so it has no steady temperature"
+         {power_w:.4} W but loses only {loss_w:.4} W, so it has no steady temperature; add series \
+         resistance, use a current drive, or ask for less overheat"
     )]
     Runaway {
         /// Top of the scanned range, K.
@@ -390,22 +391,7 @@ pub fn airflow_for_sense(
             max_airflow_m_per_s: MAX_AIRFLOW_M_PER_S,
         });
     };
-    // Errors inside the closure are carried out through a flag, so the
-    // Brent call stays allocation-free.
-    let mut failure: Option<SolveError> = None;
-    let root = brent(
-        |u| match g(u) {
-            Ok(v) => v,
-            Err(e) => {
-                failure.get_or_insert(e);
-                f64::NAN
-            }
-        },
-        lo,
-        hi,
-    );
-    if let Some(e) = failure {
-        return Err(e);
-    }
-    root.map(|r| r.x).map_err(SolveError::Numerical)
+    brent_fallible(g, lo, hi)?
+        .map(|r| r.x)
+        .map_err(SolveError::Numerical)
 }

@@ -12,7 +12,7 @@ use crate::design::model::{
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
 use crate::eseries::{format_rkm, ESeries};
-use crate::roots::brent;
+use crate::roots::{brent, brent_fallible};
 use crate::solve::{
     airflow_for_sense, operating_point, sensitivity_v_per_m_per_s, OperatingPoint, SolveError,
 };
@@ -64,6 +64,10 @@ pub enum SizeError {
         /// Resistance asked for.
         resistance_ohm: f64,
     },
+    /// The drive is `auto` but no overheat was asked for (the design-file
+    /// validation normally catches this first).
+    #[error("the drive is \"auto\" but the design gives no overheat_rise or overheat_ratio to size it for")]
+    OverheatMissing,
     /// The reference divider cannot be sized.
     #[error("reference divider: {0}")]
     Divider(#[from] DividerError),
@@ -198,12 +202,7 @@ fn size_drive(design: &Design, env: &Environment) -> Result<(f64, Option<f64>), 
             series_ohm: Sizable::Auto,
             rail,
         } => {
-            let t = target(
-                design
-                    .overheat
-                    .as_ref()
-                    .expect("validated: auto drive has an overheat"),
-            )?;
+            let t = target(design.overheat.as_ref().ok_or(SizeError::OverheatMissing)?)?;
             let (i, r) = needed(t);
             let rail_v = design.supply.rail_v(rail);
             let rs = rail_v / i - r;
@@ -221,12 +220,7 @@ fn size_drive(design: &Design, env: &Environment) -> Result<(f64, Option<f64>), 
         DriveSpec::ConstantCurrent {
             current_a: Sizable::Auto,
         } => {
-            let t = target(
-                design
-                    .overheat
-                    .as_ref()
-                    .expect("validated: auto drive has an overheat"),
-            )?;
+            let t = target(design.overheat.as_ref().ok_or(SizeError::OverheatMissing)?)?;
             let (i, _) = needed(t);
             // A current source is set, not picked from a series: keep three
             // significant figures.
@@ -618,22 +612,8 @@ fn size_feedback(
     if target < b_hi {
         return Ok(MAX_FEEDBACK_OHM);
     }
-    let mut failure = None;
-    let r = brent(
-        |l| match band(l) {
-            Ok(b) => b - target,
-            Err(e) => {
-                failure.get_or_insert(e);
-                f64::NAN
-            }
-        },
-        lo,
-        hi,
-    );
-    if let Some(e) = failure {
-        return Err(e);
-    }
-    r.map(|r| r.x.exp())
+    brent_fallible(|l| band(l).map(|b| b - target), lo, hi)?
+        .map(|r| r.x.exp())
         .map_err(|e| SizeError::Hysteresis(e.to_string()))
 }
 
