@@ -4,25 +4,15 @@
 
 use thiserror::Error;
 
+use super::value::{finite, non_negative, ValueError};
+
 /// Why a set of comparator parameters is rejected.
 #[derive(Debug, Clone, Copy, PartialEq, Error)]
 pub enum ComparatorError {
-    /// A parameter is NaN or infinite.
-    #[error("{name} must be finite, got {value}")]
-    NotFinite {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// A parameter that must be ≥ 0 is negative.
-    #[error("{name} must be >= 0, got {value}")]
-    Negative {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
+    /// A parameter is not finite, not positive or negative where it must
+    /// not be.
+    #[error(transparent)]
+    Value(#[from] ValueError),
     /// The output sink limit is not positive.
     #[error("output_sink_max_a must be > 0, got {0}")]
     SinkNotPositive(f64),
@@ -58,16 +48,6 @@ pub struct ComparatorParams {
     pub supply_max_v: f64,
 }
 
-fn non_negative(name: &'static str, value: f64) -> Result<(), ComparatorError> {
-    if !value.is_finite() {
-        Err(ComparatorError::NotFinite { name, value })
-    } else if value < 0.0 {
-        Err(ComparatorError::Negative { name, value })
-    } else {
-        Ok(())
-    }
-}
-
 impl ComparatorParams {
     /// Validate and build a parameter set.
     #[allow(clippy::too_many_arguments)]
@@ -83,12 +63,7 @@ impl ComparatorParams {
     ) -> Result<Self, ComparatorError> {
         non_negative("input_offset_v", input_offset_v)?;
         non_negative("input_bias_a", input_bias_a)?;
-        if !common_mode_low_v.is_finite() {
-            return Err(ComparatorError::NotFinite {
-                name: "common_mode_low_v",
-                value: common_mode_low_v,
-            });
-        }
+        finite("common_mode_low_v", common_mode_low_v)?;
         non_negative(
             "common_mode_high_below_supply_v",
             common_mode_high_below_supply_v,
@@ -248,7 +223,7 @@ mod tests {
         ));
         assert!(matches!(
             ComparatorParams::new(5e-3, -1e-9, 0.0, 1.5, 4e-3, 0.4, 2.0, 36.0),
-            Err(ComparatorError::Negative { .. })
+            Err(ComparatorError::Value(ValueError::Negative { .. }))
         ));
         assert!(matches!(
             ComparatorParams::new(5e-3, 250e-9, 0.0, 1.5, 4e-3, 0.4, 36.0, 2.0),
@@ -256,7 +231,7 @@ mod tests {
         ));
         assert!(matches!(
             ComparatorParams::new(f64::NAN, 250e-9, 0.0, 1.5, 4e-3, 0.4, 2.0, 36.0),
-            Err(ComparatorError::NotFinite { .. })
+            Err(ComparatorError::Value(ValueError::NotFinite { .. }))
         ));
     }
 }

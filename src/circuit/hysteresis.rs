@@ -52,6 +52,8 @@
 
 use thiserror::Error;
 
+use super::value::{finite, non_negative, positive, ValueError};
+
 /// Least ratio Rf / Rpu accepted when sizing: "R_PU should be at least 10x
 /// less than R2" (the feedback resistor). Texas Instruments, data sheet of a
 /// low-voltage quad open-collector comparator family, SNOSDA4D (2023),
@@ -67,30 +69,10 @@ pub const DEFAULT_SERIES_INPUT_OHM: f64 = 10e3;
 /// Why a hysteresis network cannot be analysed or sized.
 #[derive(Debug, Clone, Copy, PartialEq, Error)]
 pub enum HysteresisError {
-    /// An input is NaN or infinite.
-    #[error("{name} must be finite, got {value}")]
-    NotFinite {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// A resistance or current is negative.
-    #[error("{name} must be >= 0, got {value}")]
-    Negative {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// A quantity that must be strictly positive is not.
-    #[error("{name} must be > 0, got {value}")]
-    NotPositive {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
+    /// A parameter is not finite, not positive or negative where it must
+    /// not be.
+    #[error(transparent)]
+    Value(#[from] ValueError),
     /// The supply is not above the output-low level.
     #[error("supply_v ({supply_v} V) must be above output_low_v ({output_low_v} V)")]
     SupplyNotAboveOutputLow {
@@ -126,32 +108,6 @@ pub enum HysteresisError {
         /// Largest width available, V.
         max_v: f64,
     },
-}
-
-fn finite(name: &'static str, value: f64) -> Result<f64, HysteresisError> {
-    if value.is_finite() {
-        Ok(value)
-    } else {
-        Err(HysteresisError::NotFinite { name, value })
-    }
-}
-
-fn non_negative(name: &'static str, value: f64) -> Result<f64, HysteresisError> {
-    finite(name, value)?;
-    if value < 0.0 {
-        Err(HysteresisError::Negative { name, value })
-    } else {
-        Ok(value)
-    }
-}
-
-fn positive(name: &'static str, value: f64) -> Result<f64, HysteresisError> {
-    finite(name, value)?;
-    if value > 0.0 {
-        Ok(value)
-    } else {
-        Err(HysteresisError::NotPositive { name, value })
-    }
 }
 
 fn check_swing(supply_v: f64, output_low_v: f64) -> Result<(), HysteresisError> {
@@ -214,16 +170,16 @@ impl FeedbackNetwork {
         finite("source_v", source_v)?;
         non_negative("source_ohm", source_ohm)?;
         if feedback_ohm.is_nan() {
-            return Err(HysteresisError::NotFinite {
+            return Err(HysteresisError::Value(ValueError::NotFinite {
                 name: "feedback_ohm",
                 value: feedback_ohm,
-            });
+            }));
         }
         if feedback_ohm <= 0.0 {
-            return Err(HysteresisError::NotPositive {
+            return Err(HysteresisError::Value(ValueError::NotPositive {
                 name: "feedback_ohm",
                 value: feedback_ohm,
-            });
+            }));
         }
         non_negative("pullup_ohm", pullup_ohm)?;
         check_swing(supply_v, output_low_v)?;
@@ -644,7 +600,7 @@ mod tests {
     fn errors() {
         assert!(matches!(
             feedback_for_source_hysteresis(1e3, 1e3, 5.0, 0.2, 2.5, 0.0),
-            Err(HysteresisError::NotPositive { .. })
+            Err(HysteresisError::Value(ValueError::NotPositive { .. }))
         ));
         assert!(matches!(
             feedback_for_source_hysteresis(1e3, 1e3, 5.0, 0.2, 5.5, 1e-3),
@@ -652,7 +608,7 @@ mod tests {
         ));
         assert!(matches!(
             feedback_for_source_hysteresis(0.0, 1e3, 5.0, 0.2, 2.5, 1e-3),
-            Err(HysteresisError::NotPositive { .. })
+            Err(HysteresisError::Value(ValueError::NotPositive { .. }))
         ));
         // Reference node with push-pull output: width must stay below the
         // full swing Vcc − Vol = 4.8 V.
@@ -666,11 +622,11 @@ mod tests {
         ));
         assert!(matches!(
             FeedbackNetwork::new(f64::NAN, 1e3, 1e5, 1e3, 5.0, 0.2),
-            Err(HysteresisError::NotFinite { .. })
+            Err(HysteresisError::Value(ValueError::NotFinite { .. }))
         ));
         assert!(matches!(
             FeedbackNetwork::new(1.0, -1.0, 1e5, 1e3, 5.0, 0.2),
-            Err(HysteresisError::Negative { .. })
+            Err(HysteresisError::Value(ValueError::Negative { .. }))
         ));
     }
 

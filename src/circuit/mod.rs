@@ -8,3 +8,4 @@ pub mod hysteresis;
 pub mod ratings;
 pub mod regulator;
 pub mod switch;
+pub mod value;

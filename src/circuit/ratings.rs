@@ -2,6 +2,8 @@
 
 use thiserror::Error;
 
+use super::value::{finite, non_negative, ValueError};
+
 /// Common power ratings of fixed resistors, W, ascending (common practice,
 /// no source).
 pub const STANDARD_RESISTOR_POWER_W: &[f64] =
@@ -44,22 +46,10 @@ pub const DEFAULT_CAPACITOR_VOLTAGE_MARGIN: f64 = 1.5;
 /// Why a rating cannot be chosen or checked.
 #[derive(Debug, Clone, Copy, PartialEq, Error)]
 pub enum RatingError {
-    /// An input is NaN or infinite.
-    #[error("{name} must be finite, got {value}")]
-    NotFinite {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// An input that must be ≥ 0 is negative.
-    #[error("{name} must be >= 0, got {value}")]
-    Negative {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
+    /// A parameter is not finite, not positive or negative where it must
+    /// not be.
+    #[error(transparent)]
+    Value(#[from] ValueError),
     /// A derating or engaged fraction is outside (0, 1].
     #[error("{name} must be in (0, 1], got {value}")]
     Fraction {
@@ -89,16 +79,6 @@ pub enum RatingError {
     },
 }
 
-fn non_negative(name: &'static str, value: f64) -> Result<f64, RatingError> {
-    if !value.is_finite() {
-        Err(RatingError::NotFinite { name, value })
-    } else if value < 0.0 {
-        Err(RatingError::Negative { name, value })
-    } else {
-        Ok(value)
-    }
-}
-
 fn fraction(name: &'static str, value: f64) -> Result<f64, RatingError> {
     if value.is_finite() && value > 0.0 && value <= 1.0 {
         Ok(value)
@@ -124,12 +104,7 @@ fn at_or_above(series: &[f64], needed: f64) -> Result<f64, RatingError> {
 /// [`FILM_ZERO_POWER_AT_K`], 0 above (MIL-PRF-39017-style curve, see the
 /// constants).
 pub fn film_temperature_derating(ambient_k: f64) -> Result<f64, RatingError> {
-    if !ambient_k.is_finite() {
-        return Err(RatingError::NotFinite {
-            name: "ambient_k",
-            value: ambient_k,
-        });
-    }
+    finite("ambient_k", ambient_k)?;
     Ok(
         ((FILM_ZERO_POWER_AT_K - ambient_k) / (FILM_ZERO_POWER_AT_K - FILM_FULL_POWER_TO_K))
             .clamp(0.0, 1.0),
@@ -274,7 +249,7 @@ mod tests {
         ));
         assert!(matches!(
             resistor_rating_for(-0.01, 300.0, 0.5),
-            Err(RatingError::Negative { .. })
+            Err(RatingError::Value(ValueError::Negative { .. }))
         ));
     }
 

@@ -10,33 +10,15 @@
 
 use thiserror::Error;
 
+use super::value::{finite, non_negative, positive, ValueError};
+
 /// Why regulator figures or operating values are rejected.
 #[derive(Debug, Clone, Copy, PartialEq, Error)]
 pub enum RegulatorError {
-    /// A value is NaN or infinite.
-    #[error("{name} must be finite, got {value}")]
-    NotFinite {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// A value that must be > 0 is not.
-    #[error("{name} must be > 0, got {value}")]
-    NotPositive {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// A value that must be ≥ 0 is negative.
-    #[error("{name} must be >= 0, got {value}")]
-    Negative {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
+    /// A parameter is not finite, not positive or negative where it must
+    /// not be.
+    #[error(transparent)]
+    Value(#[from] ValueError),
     /// The tolerance is not a fraction below 1.
     #[error("output_tolerance must be a fraction in [0, 1), got {0}")]
     Tolerance(f64),
@@ -56,30 +38,6 @@ pub enum RegulatorError {
         /// Highest input, V.
         max: f64,
     },
-}
-
-fn finite(name: &'static str, value: f64) -> Result<f64, RegulatorError> {
-    if value.is_finite() {
-        Ok(value)
-    } else {
-        Err(RegulatorError::NotFinite { name, value })
-    }
-}
-
-fn positive(name: &'static str, value: f64) -> Result<f64, RegulatorError> {
-    if finite(name, value)? > 0.0 {
-        Ok(value)
-    } else {
-        Err(RegulatorError::NotPositive { name, value })
-    }
-}
-
-fn non_negative(name: &'static str, value: f64) -> Result<f64, RegulatorError> {
-    if finite(name, value)? >= 0.0 {
-        Ok(value)
-    } else {
-        Err(RegulatorError::Negative { name, value })
-    }
 }
 
 /// A fixed-output linear regulator described by its data-sheet figures.
@@ -309,7 +267,7 @@ mod tests {
         ));
         assert!(matches!(
             r.dissipation_w(9.0, -0.1),
-            Err(RegulatorError::Negative { .. })
+            Err(RegulatorError::Value(ValueError::Negative { .. }))
         ));
         assert!(matches!(
             r.check(12.0, 9.0, 0.1, 300.0),
@@ -321,7 +279,7 @@ mod tests {
         ));
         assert!(matches!(
             LinearRegulator::new(5.0, 0.04, 2.0, 5e-3, 0.0, 398.15),
-            Err(RegulatorError::NotPositive { .. })
+            Err(RegulatorError::Value(ValueError::NotPositive { .. }))
         ));
         assert!(LinearRegulator::new(5.0, 0.04, 2.0, 5e-3, 65.0, 398.15).is_ok());
     }

@@ -10,6 +10,8 @@
 
 use thiserror::Error;
 
+use super::value::{finite, non_negative, positive, ValueError};
+
 /// Forced gain used when none is given, 10 (common practice, no source:
 /// 10–20 is usual for a hard-saturated small-signal switch).
 pub const DEFAULT_FORCED_GAIN: f64 = 10.0;
@@ -25,30 +27,10 @@ pub const DEFAULT_FLYBACK_VOLTAGE_MARGIN: f64 = 2.0;
 /// Why a switch or load cannot be designed or checked.
 #[derive(Debug, Clone, Copy, PartialEq, Error)]
 pub enum SwitchError {
-    /// An input is NaN or infinite.
-    #[error("{name} must be finite, got {value}")]
-    NotFinite {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// An input that must be > 0 is not.
-    #[error("{name} must be > 0, got {value}")]
-    NotPositive {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
-    /// An input that must be ≥ 0 is negative.
-    #[error("{name} must be >= 0, got {value}")]
-    Negative {
-        /// Parameter name.
-        name: &'static str,
-        /// Offending value.
-        value: f64,
-    },
+    /// A parameter is not finite, not positive or negative where it must
+    /// not be.
+    #[error(transparent)]
+    Value(#[from] ValueError),
     /// Not enough voltage to drive the load or the base.
     #[error("available voltage {available_v} V must exceed {needed_v} V")]
     NoHeadroom {
@@ -57,30 +39,6 @@ pub enum SwitchError {
         /// Voltage needed, V.
         needed_v: f64,
     },
-}
-
-fn finite(name: &'static str, value: f64) -> Result<f64, SwitchError> {
-    if value.is_finite() {
-        Ok(value)
-    } else {
-        Err(SwitchError::NotFinite { name, value })
-    }
-}
-
-fn positive(name: &'static str, value: f64) -> Result<f64, SwitchError> {
-    if finite(name, value)? > 0.0 {
-        Ok(value)
-    } else {
-        Err(SwitchError::NotPositive { name, value })
-    }
-}
-
-fn non_negative(name: &'static str, value: f64) -> Result<f64, SwitchError> {
-    if finite(name, value)? >= 0.0 {
-        Ok(value)
-    } else {
-        Err(SwitchError::Negative { name, value })
-    }
 }
 
 /// Where the switch sits.
@@ -250,10 +208,10 @@ pub fn forced_gain_with(
     let ic = positive("load_a", load_a)?;
     let rb = positive("base_ohm", base_ohm)?;
     if hold_off_ohm.is_nan() || hold_off_ohm <= 0.0 {
-        return Err(SwitchError::NotPositive {
+        return Err(SwitchError::Value(ValueError::NotPositive {
             name: "hold_off_ohm",
             value: hold_off_ohm,
-        });
+        }));
     }
     let vbe = positive("vbe_on_v", vbe_on_v)?;
     let span = finite("drive_span_v", drive_span_v)?;
