@@ -157,7 +157,7 @@ impl OperatingPoint {
         self.temperature_k - self.ambient_k
     }
     /// Overheat ratio `(R_hot − R_amb)/R_amb`, the usual hot-wire
-    /// definition (e.g. Bruun, *Hot-Wire Anemometry*, Oxford 1995, §2.2).
+    /// definition (H. H. Bruun, *Hot-Wire Anemometry*, Oxford University Press 1995; section from memory).
     pub fn overheat_ratio(&self) -> f64 {
         (self.resistance_ohm - self.ambient_resistance_ohm) / self.ambient_resistance_ohm
     }

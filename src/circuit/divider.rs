@@ -173,3 +173,78 @@ fn neighbours(series: ESeries, x: f64) -> [f64; 4] {
         series.at_or_above(above * 1.001),
     ]
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn wiper_ratio_and_thevenin_by_hand() {
+        // Hand calculation: 10 kΩ + 5 kΩ trimmer + 10 kΩ on 5 V, wiper at
+        // mid-travel: ratio (10k + 2.5k)/25k = 0.5 → 2.5 V; source resistance
+        // 12.5 kΩ ∥ 12.5 kΩ = 6.25 kΩ.
+        let d = Divider {
+            top_ohm: 10e3,
+            trimmer_ohm: 5e3,
+            bottom_ohm: 10e3,
+        };
+        assert!((d.ratio_at(0.5) - 0.5).abs() < 1e-15);
+        let (v, r) = d.thevenin(5.0, 0.5);
+        assert!((v - 2.5).abs() < 1e-12);
+        assert!((r - 6250.0).abs() < 1e-9);
+        // Ends: 10k/25k = 0.4 and 15k/25k = 0.6.
+        assert!((d.ratio_at(0.0) - 0.4).abs() < 1e-15);
+        assert!((d.ratio_at(1.0) - 0.6).abs() < 1e-15);
+    }
+
+    #[test]
+    fn position_inverts_ratio() {
+        let d = Divider {
+            top_ohm: 47e3,
+            trimmer_ohm: 5e3,
+            bottom_ohm: 6.2e3,
+        };
+        for x in [0.0, 0.1, 0.5, 0.93, 1.0] {
+            assert!((d.position_for_ratio(d.ratio_at(x)) - x).abs() < 1e-12);
+        }
+    }
+
+    #[test]
+    fn sized_divider_covers_the_span_near_mid_travel() {
+        // Invariant of the sizing rule: E24 fixed parts, a 1-2-5 trimmer, the
+        // wanted span covered, the target near mid-travel, the current near
+        // the wanted one (within the trimmer's rounding).
+        for &(k_mid, k_lo, k_hi) in &[(0.15, 0.125, 0.18), (0.5, 0.45, 0.55), (0.8, 0.78, 0.83)] {
+            let (d, (top, bottom)) = Divider::size_with(
+                5.0,
+                k_mid,
+                k_lo,
+                k_hi,
+                200e-6,
+                ESeries::E24,
+                None,
+                None,
+                None,
+            )
+            .unwrap();
+            assert!(d.ratio_at(0.0) <= k_lo && d.ratio_at(1.0) >= k_hi, "{d:?}");
+            let x = d.position_for_ratio(k_mid);
+            assert!((0.25..=0.75).contains(&x), "x = {x}");
+            assert!(STANDARD_TRIMMER_OHM.contains(&d.trimmer_ohm));
+            for v in [d.top_ohm, d.bottom_ohm] {
+                assert_eq!(ESeries::E24.nearest(v), v, "{v} is an E24 value");
+            }
+            assert!(top > 0.0 && bottom > 0.0);
+            let i = 5.0 / d.total_ohm();
+            assert!(i <= 200e-6 * 1.2 && i > 10e-6, "divider current {i} A");
+        }
+    }
+
+    #[test]
+    fn span_beyond_the_rail_is_refused() {
+        assert!(matches!(
+            Divider::size_with(5.0, 0.05, 0.0, 0.3, 200e-6, ESeries::E24, None, None, None),
+            Err(DividerError::OutOfRail { .. })
+        ));
+    }
+}
