@@ -7,7 +7,9 @@
 //! writes an SI value back with an SI prefix.
 //!
 //! Sources:
-//! - SI prefixes p n µ m c h k M G T and the units V, A, W, F, Pa, s, m, K, J:
+//! - SI prefixes p n µ m k M G on V, A, W, F, Pa, s, m and ohm, plus the
+//!   spelled-out units cm, hPa, mbar, bar, atm, in, min, h and the RKM letters
+//!   R K M G T for resistance:
 //!   BIPM, *The International System of Units (SI)*, 9th ed. (2019), Table 7
 //!   (prefixes; table number from memory); degree Celsius, t/°C = T/K − 273.15
 //!   (same brochure, section 2.3.1, memory for the section number); minute,

@@ -429,7 +429,12 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
     let pullup_ohm = node.pullup_ohm;
     let mut notes = Vec::new();
     let sense_src = drive.sense_source_ohm(at_trip.resistance_ohm);
+    // A series input resistor is only fitted where feedback acts on the
+    // sense side.
+    let wants_feedback = !matches!(det.hysteresis, HysteresisSpec::None)
+        || matches!(det.feedback_ohm, Sizable::Fixed(_));
     let input_ohm = match arrangement {
+        _ if !wants_feedback => 0.0,
         Arrangement::ReferenceOnNonInverting => 0.0,
         Arrangement::SenseOnNonInverting => match det.input_resistor_ohm {
             Sizable::Fixed(r) => r,

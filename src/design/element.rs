@@ -90,15 +90,7 @@ pub struct Candidate {
 /// no `candidate` key, a whole design file whose `[element]` is the one
 /// candidate (labelled by its `name`, else the design's title).
 pub fn parse_candidates(file: &str, source: &str) -> Result<Vec<Candidate>, Box<Diagnostic>> {
-    let toml_err = |e: toml::de::Error| {
-        Box::new(Diagnostic::at(
-            file,
-            source,
-            e.span(),
-            None,
-            e.message().trim().to_string(),
-        ))
-    };
+    let toml_err = |e: toml::de::Error| Box::new(super::model::toml_error(file, source, &e));
     let table: toml::Table = toml::from_str(source).map_err(toml_err)?;
     if !table.contains_key("candidate") {
         let design = super::parse_design(file, source)?;
@@ -187,6 +179,15 @@ fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Ele
             ))
         }
         (Some(l), None) => {
+            if let (Some(m), Some(w)) = (material, &e.material) {
+                if m != Material::Tungsten {
+                    return Err(rd.err(
+                        Some(w.span()),
+                        &format!("{p}.material"),
+                        format!("a lamp filament is tungsten, but material = \"{}\" was given; leave `material` out or write \"tungsten\"", m.name()),
+                    ));
+                }
+            }
             let (law, cooling, c, lamp_notes) = lamp(rd, l, p)?;
             material = Some(Material::Tungsten);
             notes.extend(lamp_notes);
@@ -422,7 +423,13 @@ fn resistance(
             if law == "platinum" {
                 let t0 = match &r.t0 {
                     Some(v) => temp(rd, v, "t0")?,
-                    None => 273.15,
+                    None => {
+                        rd.assumptions.push(format!(
+                            "{}.t0 not given: r0 taken at 0 °C, the reference temperature of IEC 60751",
+                            f("r0").trim_end_matches(".r0")
+                        ));
+                        273.15
+                    }
                 };
                 // R0 at 0 °C from the resistance at t0: R(t0)/W(t0), with
                 // W(t) = R(t)/R0 from the IEC 60751 equation.
@@ -820,7 +827,18 @@ fn cooling(
             };
             let emissivity = match &c.emissivity {
                 Some(v) => Some(rd.fraction_in(v, &f("emissivity"), 0.0, 1.0)?),
-                None => None,
+                None => {
+                    rd.assumptions.push(format!(
+                        "{pre}.emissivity not given: the {} preset's emissivity{}",
+                        m.name(),
+                        if m == Material::Tungsten {
+                            " (temperature dependent, Forsythe & Watson 1934)"
+                        } else {
+                            ""
+                        }
+                    ));
+                    None
+                }
             };
             let supports = rd.or_default(
                 &c.supports,
@@ -859,7 +877,14 @@ fn cooling(
                             format!("ρ·c·volume of the coil's {} wire", m.name()),
                         ))
                     }
-                    _ => None,
+                    (None, None) => None,
+                    (Some(v), None) | (None, Some(v)) => {
+                        return Err(rd.err(
+                            Some(v.span()),
+                            &pre,
+                            "give both wire_diameter and wire_length (the coil's own wire, for its heat capacity), or neither".into(),
+                        ))
+                    }
                 },
             };
             Ok((CoolingLaw::Geometry(geo), derived))

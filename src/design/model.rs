@@ -453,7 +453,9 @@ impl<'a> Reader<'a> {
         match v {
             Some(v) => f(self, v),
             None => {
-                self.assumptions.push(note.to_string());
+                if !note.is_empty() {
+                    self.assumptions.push(note.to_string());
+                }
                 Ok(default)
             }
         }
@@ -537,7 +539,7 @@ pub fn parse_design(file: &str, source: &str) -> Result<Design, Box<Diagnostic>>
 
 /// Turn a toml/serde error into a diagnostic, with a "did you mean" hint
 /// for unknown keys.
-fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagnostic {
+pub(crate) fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagnostic {
     let message = e.message().trim().to_string();
     let mut help = None;
     if let Some(rest) = message.strip_prefix("unknown field `") {
@@ -549,6 +551,8 @@ fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagnostic {
     }
     let message = if message.starts_with("missing field") {
         format!("{message} (a required key is absent from this table)")
+    } else if message.contains("untagged enum Scalar") {
+        "expected a number, or a quoted string with its unit such as \"82 ohm\"".to_string()
     } else {
         message
     };
@@ -612,13 +616,6 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         (Some(p), None) => rd.positive(p, "ambient.pressure", Dimension::Pressure)?,
         (None, Some(h)) => {
             let h_m = rd.quantity(h, "ambient.altitude", Dimension::Length)?;
-            if !(-500.0..=11_000.0).contains(&h_m) {
-                return Err(rd.err(
-                    Some(h.span()),
-                    "ambient.altitude",
-                    format!("expected an altitude between -500 m and 11000 m (troposphere), found {h_m} m"),
-                ));
-            }
             crate::physics::air::pressure_at_altitude_pa(h_m)
                 .map_err(|e| rd.err(Some(h.span()), "ambient.altitude", e.to_string()))?
         }
@@ -629,7 +626,12 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
                 "give either pressure or altitude, not both".into(),
             ))
         }
-        (None, None) => crate::element::STANDARD_PRESSURE_PA,
+        (None, None) => {
+            rd.assumptions.push(
+                "ambient.pressure and ambient.altitude not given: standard atmospheric pressure, 101.325 kPa".into(),
+            );
+            crate::element::STANDARD_PRESSURE_PA
+        }
     };
     let ambient = Ambient {
         nominal_k,
@@ -911,8 +913,36 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     let divider_current_a = rd.opt(&t.divider_current, |r, v| {
         r.positive(v, "detector.divider_current", Dimension::Current)
     })?;
+    let omitted: Vec<&str> = [
+        ("top", t.top.is_none()),
+        ("trimmer", t.trimmer.is_none()),
+        ("bottom", t.bottom.is_none()),
+    ]
+    .iter()
+    .filter(|(_, absent)| *absent)
+    .map(|(k, _)| *k)
+    .collect();
+    if !omitted.is_empty() {
+        rd.assumptions.push(format!(
+            "detector keys not given, so sized (\"auto\"): {}",
+            omitted.join(", ")
+        ));
+    }
+    let sizes_divider = [&t.top, &t.trimmer, &t.bottom].iter().any(|v| {
+        v.as_ref().is_none_or(
+            |v| matches!(v.get_ref(), Scalar::Text(s) if s.trim().eq_ignore_ascii_case("auto")),
+        )
+    });
+    if divider_current_a.is_none() && sizes_divider {
+        rd.assumptions.push(
+            "detector.divider_current not given: the divider is sized for about 200 µA (≥ 100× a comparator's bias current; common practice)".into(),
+        );
+    }
     let hysteresis = match &t.hysteresis {
-        None => HysteresisSpec::None,
+        None => {
+            rd.assumptions.push("detector.hysteresis not given: no hysteresis network".into());
+            HysteresisSpec::None
+        }
         Some(v) => match v.get_ref() {
             Scalar::Text(s) if s.trim().eq_ignore_ascii_case("none") => HysteresisSpec::None,
             Scalar::Text(s) => {
@@ -999,7 +1029,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
 
     let comparator = build_comparator(rd, raw.comparator.as_ref(), reference_rail, has_reg)?;
     let output = match &raw.output {
-        Some(o) => Some(build_output(rd, o, has_reg)?),
+        Some(o) => Some(build_output(rd, o, has_reg, &comparator, &supply)?),
         None => None,
     };
     let ratings = match &raw.ratings {
@@ -1074,7 +1104,13 @@ fn build_comparator(
     let c = c.unwrap_or(&empty);
     let rail = match &c.rail {
         Some(w) => rd.rail(w, "comparator.rail", has_reg)?,
-        None => default_rail,
+        None => {
+            rd.assumptions.push(format!(
+                "comparator.rail not given: the comparator is fed from the {} rail, like the reference",
+                default_rail.name()
+            ));
+            default_rail
+        }
     };
     let field = |rd: &mut Reader<'_>,
                  v: &Option<Value>,
@@ -1178,7 +1214,13 @@ fn build_comparator(
     })
 }
 
-fn build_output(rd: &mut Reader<'_>, o: &raw::RawOutput, has_reg: bool) -> R<OutputSpec> {
+fn build_output(
+    rd: &mut Reader<'_>,
+    o: &raw::RawOutput,
+    has_reg: bool,
+    comparator: &ComparatorSpec,
+    supply: &Supply,
+) -> R<OutputSpec> {
     let stage = match &o.stage {
         None => StageKind::Auto,
         Some(w) => match rd.word(
@@ -1250,30 +1292,130 @@ fn build_output(rd: &mut Reader<'_>, o: &raw::RawOutput, has_reg: bool) -> R<Out
                 Dimension::Resistance,
             )?,
             contact_rating: o.contact_rating.as_ref().map(|w| w.get_ref().clone()),
-            switches_mains: o.switches_mains.unwrap_or(false),
+            switches_mains: o.switches_mains.as_ref().is_some_and(|b| *b.get_ref()),
         },
     };
     let rail = match &o.rail {
         Some(w) => rd.rail(w, "output.rail", has_reg)?,
-        None => Rail::Input,
+        None => {
+            rd.assumptions
+                .push("output.rail not given: the load is fed from the input rail".into());
+            Rail::Input
+        }
     };
-    let forced_gain = rd.or_default(
-        &o.forced_gain,
-        10.0,
-        "output.forced_gain not given: 10 (common practice for a saturated switch)",
-        |r, v| {
-            let x = r.quantity(v, "output.forced_gain", Dimension::Fraction)?;
-            if (2.0..=50.0).contains(&x) {
-                Ok(x)
-            } else {
-                Err(r.err(
-                    Some(v.span()),
-                    "output.forced_gain",
-                    format!("expected a forced gain between 2 and 50, found {x}"),
-                ))
+    // Keys that belong to another load are an error, not silently ignored.
+    let load_name = match load {
+        Load::Led { .. } => "led",
+        Load::Buzzer { .. } => "buzzer",
+        Load::Relay { .. } => "relay",
+    };
+    let foreign: [(&str, &str, Option<std::ops::Range<usize>>); 7] = [
+        (
+            "led_forward",
+            "led",
+            o.led_forward.as_ref().map(|v| v.span()),
+        ),
+        (
+            "led_current",
+            "led",
+            o.led_current.as_ref().map(|v| v.span()),
+        ),
+        (
+            "buzzer_current",
+            "buzzer",
+            o.buzzer_current.as_ref().map(|v| v.span()),
+        ),
+        (
+            "coil_resistance",
+            "relay",
+            o.coil_resistance.as_ref().map(|v| v.span()),
+        ),
+        (
+            "coil_voltage",
+            "relay",
+            o.coil_voltage.as_ref().map(|v| v.span()),
+        ),
+        (
+            "contact_rating",
+            "relay",
+            o.contact_rating.as_ref().map(|v| v.span()),
+        ),
+        (
+            "switches_mains",
+            "relay",
+            o.switches_mains.as_ref().map(|v| v.span()),
+        ),
+    ];
+    for (key, owner, span) in foreign {
+        if let Some(span) = span {
+            if owner != load_name {
+                return Err(rd.err(
+                    Some(span),
+                    &format!("output.{key}"),
+                    format!(
+                        "`{key}` belongs to a {owner} load, but this output drives a {load_name}"
+                    ),
+                ));
             }
-        },
-    )?;
+        }
+    }
+    if load_name != "relay" && o.diode.is_some() {
+        return Err(rd.err(
+            Some(o.load.span()),
+            "output.diode",
+            format!("a flyback diode is only fitted across a relay coil, but this output drives a {load_name}"),
+        ));
+    }
+    // `auto` picks the simplest stage within ratings: the comparator output
+    // directly when an LED or buzzer current is within its sink limit,
+    // otherwise an NPN low-side switch (a relay coil always gets a switch).
+    let stage = if stage == StageKind::Auto {
+        let rail_v = supply.rail_v(rail);
+        let (load_a, what) = match load {
+            Load::Led { current_a, .. } => (current_a, "LED"),
+            Load::Buzzer { current_a } => (current_a, "buzzer"),
+            Load::Relay { coil_ohm, .. } => (rail_v / coil_ohm, "relay coil"),
+        };
+        let direct = load_a <= comparator.sink_max_a && load_name != "relay";
+        rd.assumptions.push(format!(
+            "output.stage \"auto\": {} ({what} current {:.1} mA against the comparator's {:.1} mA sink limit)",
+            if direct { "the comparator output drives the load directly" } else { "an NPN low-side switch" },
+            load_a * 1e3,
+            comparator.sink_max_a * 1e3
+        ));
+        if direct {
+            StageKind::Direct
+        } else {
+            StageKind::NpnLowSide
+        }
+    } else {
+        stage
+    };
+    if stage == StageKind::Direct {
+        if let Some(v) = &o.forced_gain {
+            return Err(rd.err(Some(v.span()), "output.forced_gain", "a forced gain applies to a transistor stage, but the comparator drives this load directly".into()));
+        }
+        if o.transistor.is_some() {
+            return Err(rd.err(Some(o.load.span()), "output.transistor", "transistor figures apply to a transistor stage, but the comparator drives this load directly".into()));
+        }
+    }
+    let gain_note = if stage == StageKind::Direct {
+        ""
+    } else {
+        "output.forced_gain not given: 10 (common practice for a saturated switch)"
+    };
+    let forced_gain = rd.or_default(&o.forced_gain, 10.0, gain_note, |r, v| {
+        let x = r.quantity(v, "output.forced_gain", Dimension::Fraction)?;
+        if (2.0..=50.0).contains(&x) {
+            Ok(x)
+        } else {
+            Err(r.err(
+                Some(v.span()),
+                "output.forced_gain",
+                format!("expected a forced gain between 2 and 50, found {x}"),
+            ))
+        }
+    })?;
     // Typical small-signal transistor class figures (no specific part).
     let transistor = match &o.transistor {
         None => {

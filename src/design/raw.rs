@@ -85,7 +85,7 @@ pub struct RawSupply {
     pub input_max: Option<Value>,
     /// `[supply.regulator]`.
     pub regulator: Option<RawRegulator>,
-    /// `[supply.decoupling]`.
+    /// Decoupling capacitance or `auto` (a key, not a table).
     pub decoupling: Option<Value>,
 }
 
@@ -324,7 +324,7 @@ pub struct RawOutput {
     /// Relay contact rating (text echoed in the report).
     pub contact_rating: Option<Word>,
     /// Whether the relay contacts switch mains.
-    pub switches_mains: Option<bool>,
+    pub switches_mains: Option<Spanned<bool>>,
     /// Forced current gain for a transistor stage.
     pub forced_gain: Option<Value>,
     /// Transistor ratings.
