@@ -54,6 +54,11 @@ pub struct TripSummary {
     pub airflow_at_trimmer_bottom_m_per_s: Option<f64>,
     /// Trip airflow with the trimmer at its top end, m/s.
     pub airflow_at_trimmer_top_m_per_s: Option<f64>,
+    /// What the detector does with the trimmer at its grounded end, in words
+    /// ("trips at 0.120 m/s", "always tripped", "never trips").
+    pub trimmer_bottom_state: String,
+    /// The same with the trimmer at its top end.
+    pub trimmer_top_state: String,
     /// How far one percent of trimmer travel moves the trip point, m/s.
     pub airflow_per_percent_travel_m_per_s: f64,
     /// Trip-point uncertainty from the comparator's input offset, ± m/s.

@@ -418,7 +418,10 @@ fn compare_rejects_a_bad_candidates_file() {
 #[test]
 fn a_key_of_another_load_is_rejected() {
     // The greenhouse output drives a relay; an LED key there is a mistake.
-    let text = greenhouse().replace("load = \"relay\"", "load = \"relay\"\nled_current = \"5 mA\"");
+    let text = greenhouse().replace(
+        "load = \"relay\"",
+        "load = \"relay\"\nled_current = \"5 mA\"",
+    );
     let path = write_design("foreign-output-key", &text);
     draftwire()
         .arg("size")
@@ -426,13 +429,29 @@ fn a_key_of_another_load_is_rejected() {
         .assert()
         .code(2)
         .stderr(predicate::str::contains("output.led_current"))
-        .stderr(predicate::str::contains("belongs to a led load, but this output drives a relay"));
+        .stderr(predicate::str::contains(
+            "belongs to a led load, but this output drives a relay",
+        ));
 }
 
 #[test]
 fn auto_output_stage_is_explained_in_the_assumptions() {
-    let out = draftwire().args(["size", "--format", "json"]).arg(manifest("examples/greenhouse-fan-alarm.toml")).output().unwrap();
+    let out = draftwire()
+        .args(["size", "--format", "json"])
+        .arg(manifest("examples/greenhouse-fan-alarm.toml"))
+        .output()
+        .unwrap();
     let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
-    let assumptions: Vec<&str> = v["assumptions"].as_array().unwrap().iter().map(|a| a.as_str().unwrap()).collect();
-    assert!(assumptions.iter().any(|a| a.starts_with("output.stage \"auto\": an NPN low-side switch")), "{assumptions:?}");
+    let assumptions: Vec<&str> = v["assumptions"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|a| a.as_str().unwrap())
+        .collect();
+    assert!(
+        assumptions
+            .iter()
+            .any(|a| a.starts_with("output.stage \"auto\": an NPN low-side switch")),
+        "{assumptions:?}"
+    );
 }

@@ -100,6 +100,8 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
         trimmer_position_percent: 100.0 * x,
         airflow_at_trimmer_bottom_m_per_s: at(0.0),
         airflow_at_trimmer_top_m_per_s: at(1.0),
+        trimmer_bottom_state: end_state(design, core, at(0.0), 0.0),
+        trimmer_top_state: end_state(design, core, at(1.0), 1.0),
         airflow_per_percent_travel_m_per_s: per_percent,
         offset_uncertainty_m_per_s: if sens != 0.0 {
             design.comparator.offset_v / sens.abs()
@@ -439,4 +441,27 @@ fn hottest_still_air(design: &Design, core: &SizedCore) -> (f64, String) {
         }
     }
     best
+}
+
+/// In words, what the detector does with the trimmer at position `x` when
+/// the switching level is reached at airflow `u` (or never reached).
+fn end_state(design: &Design, core: &SizedCore, u: Option<f64>, x: f64) -> String {
+    if let Some(u) = u {
+        return format!("trips at {u:.3} m/s");
+    }
+    // Unreached: still air lies on one side of the level for every airflow.
+    // Tripped when σ·(V_sense − level) > 0 (see size::arrangement_for).
+    let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
+    let level = core.front.switching_sense_v(x, core.idle_state, src);
+    let sigma = core.sensitivity_v_per_m_per_s.signum()
+        * if design.detector.trip_on == crate::design::model::TripDirection::Rising {
+            1.0
+        } else {
+            -1.0
+        };
+    if sigma * (core.still_air.sense_v - level) > 0.0 {
+        "always tripped".into()
+    } else {
+        "never trips".into()
+    }
 }

@@ -183,18 +183,12 @@ pub fn render(r: &Report, file: &str) -> String {
             tr.trimmer_position_percent
         ),
     );
-    let ends = |u: Option<f64>| {
-        u.map_or("out of reach (0–100 m/s)".to_string(), |u| {
-            format!("{u:.3} m/s")
-        })
-    };
     kv(
         &mut out,
         "trimmer range",
         format!(
-            "{} (grounded end) to {} (top end)",
-            ends(tr.airflow_at_trimmer_bottom_m_per_s),
-            ends(tr.airflow_at_trimmer_top_m_per_s)
+            "grounded end: {}; top end: {}",
+            tr.trimmer_bottom_state, tr.trimmer_top_state
         ),
     );
     kv(
