@@ -28,8 +28,8 @@
 //!   `cold_temperature` (default 20 °C).
 
 use super::diagnostic::Diagnostic;
-use super::model::{Reader, R};
 use super::raw::{self, Value};
+use super::reader::{Reader, R};
 use crate::element::{
     CoolingLaw, DissipationLaw, Element, GeometryCooling, KingsLaw, LinearTcr, ResistanceLaw,
     ResistanceTable, ScaledSteinhartHart, Shape,
@@ -90,7 +90,7 @@ pub struct Candidate {
 /// no `candidate` key, a whole design file whose `[element]` is the one
 /// candidate (labelled by its `name`, else the design's title).
 pub fn parse_candidates(file: &str, source: &str) -> Result<Vec<Candidate>, Box<Diagnostic>> {
-    let toml_err = |e: toml::de::Error| Box::new(super::model::toml_error(file, source, &e));
+    let toml_err = |e: toml::de::Error| Box::new(super::reader::toml_error(file, source, &e));
     let table: toml::Table = toml::from_str(source).map_err(toml_err)?;
     if !table.contains_key("candidate") {
         let design = super::parse_design(file, source)?;

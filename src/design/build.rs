@@ -1,0 +1,964 @@
+//! Stage two of reading a design file: from the raw TOML mirror to the
+//! validated [`Design`], table by table (the `[element]` section lives in
+//! `element.rs`).
+
+use super::diagnostic::Diagnostic;
+use super::model::*;
+use super::raw::{self, Scalar, Value};
+use super::reader::{toml_error, Reader, R};
+use crate::eseries::ESeries;
+use crate::quantity::{parse_quantity, Dimension};
+
+/// Parse and validate a design file's text. `file` names it in messages.
+pub fn parse_design(file: &str, source: &str) -> Result<Design, Box<Diagnostic>> {
+    let raw: raw::RawDesign =
+        toml::from_str(source).map_err(|e| Box::new(toml_error(file, source, &e)))?;
+    let mut rd = Reader {
+        file,
+        source,
+        assumptions: Vec::new(),
+    };
+    build(&mut rd, &raw)
+}
+
+fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
+    let title = raw
+        .design
+        .as_ref()
+        .and_then(|m| m.title.as_ref())
+        .map(|t| t.get_ref().clone())
+        .unwrap_or_else(|| "untitled design".to_string());
+    let e_series = match raw.design.as_ref().and_then(|m| m.e_series.as_ref()) {
+        Some(w) => ESeries::parse(w.get_ref().trim()).ok_or_else(|| {
+            Box::new(
+                Diagnostic::at(
+                    rd.file,
+                    rd.source,
+                    Some(w.span()),
+                    Some("design.e_series"),
+                    format!("expected one of \"E6\", \"E12\", \"E24\", \"E48\", \"E96\", \"E192\", found \"{}\"", w.get_ref()),
+                )
+                .with_help(None),
+            )
+        })?,
+        None => {
+            rd.assumptions.push("design.e_series not given: sized resistors use E24".into());
+            ESeries::E24
+        }
+    };
+
+    // Ambient.
+    let a = &raw.ambient;
+    let nominal_k = rd.quantity(&a.nominal, "ambient.nominal", Dimension::Temperature)?;
+    let min_k = rd.or_default(
+        &a.min,
+        nominal_k,
+        "ambient.min not given: taken as the nominal ambient",
+        |r, v| r.quantity(v, "ambient.min", Dimension::Temperature),
+    )?;
+    let max_k = rd.or_default(
+        &a.max,
+        nominal_k,
+        "ambient.max not given: taken as the nominal ambient",
+        |r, v| r.quantity(v, "ambient.max", Dimension::Temperature),
+    )?;
+    if !(min_k <= nominal_k && nominal_k <= max_k) {
+        return Err(rd.err(
+            a.min.as_ref().or(a.max.as_ref()).map(|v| v.span()),
+            "ambient",
+            format!(
+                "expected min ≤ nominal ≤ max, found {:.2} °C, {:.2} °C, {:.2} °C",
+                min_k - 273.15,
+                nominal_k - 273.15,
+                max_k - 273.15
+            ),
+        ));
+    }
+    let pressure_pa = match (&a.pressure, &a.altitude) {
+        (Some(p), None) => rd.positive(p, "ambient.pressure", Dimension::Pressure)?,
+        (None, Some(h)) => {
+            let h_m = rd.quantity(h, "ambient.altitude", Dimension::Length)?;
+            crate::physics::air::pressure_at_altitude_pa(h_m)
+                .map_err(|e| rd.err(Some(h.span()), "ambient.altitude", e.to_string()))?
+        }
+        (Some(_), Some(h)) => {
+            return Err(rd.err(
+                Some(h.span()),
+                "ambient.altitude",
+                "give either pressure or altitude, not both".into(),
+            ))
+        }
+        (None, None) => {
+            rd.assumptions.push(
+                "ambient.pressure and ambient.altitude not given: standard atmospheric pressure, 101.325 kPa".into(),
+            );
+            crate::element::STANDARD_PRESSURE_PA
+        }
+    };
+    let ambient = Ambient {
+        nominal_k,
+        min_k,
+        max_k,
+        pressure_pa,
+    };
+
+    // Supply.
+    let s = &raw.supply;
+    let input_v = rd.positive(&s.input, "supply.input", Dimension::Voltage)?;
+    let input_min_v = rd.or_default(
+        &s.input_min,
+        input_v,
+        "supply.input_min not given: taken as the nominal input",
+        |r, v| r.positive(v, "supply.input_min", Dimension::Voltage),
+    )?;
+    let input_max_v = rd.or_default(
+        &s.input_max,
+        input_v,
+        "supply.input_max not given: taken as the nominal input",
+        |r, v| r.positive(v, "supply.input_max", Dimension::Voltage),
+    )?;
+    if !(input_min_v <= input_v && input_v <= input_max_v) {
+        return Err(rd.err(
+            Some(s.input.span()),
+            "supply",
+            format!("expected input_min ≤ input ≤ input_max, found {input_min_v} V, {input_v} V, {input_max_v} V"),
+        ));
+    }
+    let regulator = match &s.regulator {
+        None => None,
+        Some(g) => {
+            let output_v = rd.positive(&g.output, "supply.regulator.output", Dimension::Voltage)?;
+            let dropout_v = rd.non_negative(
+                rd.required(
+                    &g.dropout,
+                    "supply.regulator.dropout",
+                    Some(g.output.span()),
+                    "the regulator's dropout voltage, e.g. dropout = \"2 V\"",
+                )?,
+                "supply.regulator.dropout",
+                Dimension::Voltage,
+            )?;
+            let quiescent_a = rd.non_negative(
+                rd.required(
+                    &g.quiescent,
+                    "supply.regulator.quiescent",
+                    Some(g.output.span()),
+                    "the regulator's quiescent current, e.g. quiescent = \"5 mA\"",
+                )?,
+                "supply.regulator.quiescent",
+                Dimension::Current,
+            )?;
+            let tolerance = rd.or_default(&g.tolerance, crate::circuit::regulator::LinearRegulator::typical_fixed_5v().output_tolerance, "supply.regulator.tolerance not given: ±4 % assumed (typical of the fixed linear regulator class)", |r, v| {
+                r.fraction_in(v, "supply.regulator.tolerance", 0.0, 0.5)
+            })?;
+            let theta_ja_k_per_w = rd.or_default(
+                &g.theta_ja,
+                65.0,
+                "supply.regulator.theta_ja not given: 65 K/W assumed (typical of a TO-220 package with no heat sink)",
+                |r, v| r.positive(v, "supply.regulator.theta_ja", Dimension::ThermalResistance),
+            )?;
+            let max_junction_k = rd.or_default(
+                &g.max_junction,
+                398.15,
+                "supply.regulator.max_junction not given: 125 °C assumed (typical)",
+                |r, v| r.quantity(v, "supply.regulator.max_junction", Dimension::Temperature),
+            )?;
+            Some(RegulatorSpec {
+                output_v,
+                tolerance,
+                dropout_v,
+                quiescent_a,
+                theta_ja_k_per_w,
+                max_junction_k,
+            })
+        }
+    };
+    let decoupling_f = match &s.decoupling {
+        Some(v) => rd.sizable(v, "supply.decoupling", Dimension::Capacitance)?,
+        None => Sizable::Auto,
+    };
+    let supply = Supply {
+        input_v,
+        input_min_v,
+        input_max_v,
+        regulator,
+        decoupling_f,
+    };
+    let has_reg = regulator.is_some();
+
+    // Element.
+    let (element, element_tolerance) = super::element::build_element(rd, &raw.element)?;
+
+    // Drive.
+    let d = &raw.drive;
+    let kind = rd.word(
+        &d.kind,
+        "drive.kind",
+        &["series-resistor", "constant-current"],
+    )?;
+    let drive = if kind == "series-resistor" {
+        let rail = match &d.rail {
+            Some(w) => rd.rail(w, "drive.rail", has_reg)?,
+            None => {
+                let r = if has_reg {
+                    Rail::Regulated
+                } else {
+                    Rail::Input
+                };
+                rd.assumptions.push(format!(
+                    "drive.rail not given: the element is fed from the {} rail",
+                    r.name()
+                ));
+                r
+            }
+        };
+        let series = rd.required(
+            &d.series,
+            "drive.series",
+            Some(d.kind.span()),
+            "the series resistor, e.g. series = \"47 ohm\" or series = \"auto\"",
+        )?;
+        if let Some(c) = &d.current {
+            return Err(rd.err(
+                Some(c.span()),
+                "drive.current",
+                "a series-resistor drive takes `series`, not `current`".into(),
+            ));
+        }
+        DriveSpec::SeriesResistor {
+            rail,
+            series_ohm: rd.sizable(series, "drive.series", Dimension::Resistance)?,
+        }
+    } else {
+        let current = rd.required(
+            &d.current,
+            "drive.current",
+            Some(d.kind.span()),
+            "the drive current, e.g. current = \"50 mA\" or current = \"auto\"",
+        )?;
+        if let Some(c) = &d.series {
+            return Err(rd.err(
+                Some(c.span()),
+                "drive.series",
+                "a constant-current drive takes `current`, not `series`".into(),
+            ));
+        }
+        if let Some(c) = &d.rail {
+            return Err(rd.err(
+                Some(c.span()),
+                "drive.rail",
+                "a constant-current drive takes no rail".into(),
+            ));
+        }
+        DriveSpec::ConstantCurrent {
+            current_a: rd.sizable(current, "drive.current", Dimension::Current)?,
+        }
+    };
+    let sized = matches!(
+        drive,
+        DriveSpec::SeriesResistor {
+            series_ohm: Sizable::Auto,
+            ..
+        } | DriveSpec::ConstantCurrent {
+            current_a: Sizable::Auto
+        }
+    );
+    let overheat = match (&d.overheat_rise, &d.overheat_ratio) {
+        (Some(v), None) => Some(OverheatTarget::Rise(rd.positive(
+            v,
+            "drive.overheat_rise",
+            Dimension::TemperatureDifference,
+        )?)),
+        (None, Some(v)) => {
+            let x = rd.quantity(v, "drive.overheat_ratio", Dimension::Fraction)?;
+            if !(x > 0.0 && x < 20.0) {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "drive.overheat_ratio",
+                    format!("expected a ratio above 0 and below 20, found {x}"),
+                ));
+            }
+            Some(OverheatTarget::Ratio(x))
+        }
+        (Some(_), Some(v)) => {
+            return Err(rd.err(
+                Some(v.span()),
+                "drive.overheat_ratio",
+                "give either overheat_rise or overheat_ratio, not both".into(),
+            ))
+        }
+        (None, None) => None,
+    };
+    if sized && overheat.is_none() {
+        return Err(rd.err(
+            Some(d.kind.span()),
+            "drive",
+            "the drive is \"auto\", so it needs a wanted still-air overheat: overheat_rise = \"80 K\" or overheat_ratio = 0.3".into(),
+        ));
+    }
+    if !sized {
+        if let Some(v) = d.overheat_rise.as_ref().or(d.overheat_ratio.as_ref()) {
+            return Err(rd.err(
+                Some(v.span()),
+                "drive",
+                "an overheat target is only used when the drive is \"auto\"".into(),
+            ));
+        }
+    }
+    let default_tol = match drive {
+        DriveSpec::SeriesResistor { .. } => e_series.tolerance(),
+        DriveSpec::ConstantCurrent { .. } => 0.0,
+    };
+    let drive_tolerance = rd.or_default(
+        &d.tolerance,
+        default_tol,
+        &format!(
+            "drive.tolerance not given: ±{} % assumed",
+            default_tol * 100.0
+        ),
+        |r, v| r.fraction_in(v, "drive.tolerance", 0.0, 0.5),
+    )?;
+
+    // Detector.
+    let t = &raw.detector;
+    let trip_airflow_m_per_s = rd.positive(
+        &t.trip_airflow,
+        "detector.trip_airflow",
+        Dimension::Velocity,
+    )?;
+    if trip_airflow_m_per_s > crate::solve::MAX_AIRFLOW_M_PER_S / 2.0 {
+        return Err(rd.err(
+            Some(t.trip_airflow.span()),
+            "detector.trip_airflow",
+            format!(
+                "expected at most {} m/s, found {trip_airflow_m_per_s} m/s",
+                crate::solve::MAX_AIRFLOW_M_PER_S / 2.0
+            ),
+        ));
+    }
+    let trip_on = match rd.word(&t.trip_on, "detector.trip_on", &["rising", "falling"])? {
+        "rising" => TripDirection::Rising,
+        _ => TripDirection::Falling,
+    };
+    let drive_rail = match drive {
+        DriveSpec::SeriesResistor { rail, .. } => rail,
+        DriveSpec::ConstantCurrent { .. } => {
+            if has_reg {
+                Rail::Regulated
+            } else {
+                Rail::Input
+            }
+        }
+    };
+    let reference_rail = match &t.reference_rail {
+        Some(w) => rd.rail(w, "detector.reference_rail", has_reg)?,
+        None => {
+            rd.assumptions.push(format!(
+                "detector.reference_rail not given: the divider hangs from the {} rail",
+                drive_rail.name()
+            ));
+            drive_rail
+        }
+    };
+    let sz = |rd: &Reader, v: &Option<Value>, f: &str| -> R<Sizable> {
+        match v {
+            Some(v) => rd.sizable(v, f, Dimension::Resistance),
+            None => Ok(Sizable::Auto),
+        }
+    };
+    let top_ohm = sz(rd, &t.top, "detector.top")?;
+    let trimmer_ohm = sz(rd, &t.trimmer, "detector.trimmer")?;
+    let bottom_ohm = sz(rd, &t.bottom, "detector.bottom")?;
+    let trimmer_position = rd.opt(&t.trimmer_position, |r, v| {
+        r.fraction_in(v, "detector.trimmer_position", 0.0, 1.0)
+    })?;
+    let divider_current_a = rd.opt(&t.divider_current, |r, v| {
+        r.positive(v, "detector.divider_current", Dimension::Current)
+    })?;
+    let omitted: Vec<&str> = [
+        ("top", t.top.is_none()),
+        ("trimmer", t.trimmer.is_none()),
+        ("bottom", t.bottom.is_none()),
+    ]
+    .iter()
+    .filter(|(_, absent)| *absent)
+    .map(|(k, _)| *k)
+    .collect();
+    if !omitted.is_empty() {
+        rd.assumptions.push(format!(
+            "detector keys not given, so sized (\"auto\"): {}",
+            omitted.join(", ")
+        ));
+    }
+    let sizes_divider = [&t.top, &t.trimmer, &t.bottom].iter().any(|v| {
+        v.as_ref().is_none_or(
+            |v| matches!(v.get_ref(), Scalar::Text(s) if s.trim().eq_ignore_ascii_case("auto")),
+        )
+    });
+    if divider_current_a.is_none() && sizes_divider {
+        rd.assumptions.push(
+            "detector.divider_current not given: the divider is sized for about 200 µA (≥ 100× a comparator's bias current; common practice)".into(),
+        );
+    }
+    let hysteresis = match &t.hysteresis {
+        None => {
+            rd.assumptions.push("detector.hysteresis not given: no hysteresis network".into());
+            HysteresisSpec::None
+        }
+        Some(v) => match v.get_ref() {
+            Scalar::Text(s) if s.trim().eq_ignore_ascii_case("none") => HysteresisSpec::None,
+            Scalar::Text(s) => {
+                if let Ok(u) = parse_quantity(s, Dimension::Velocity) {
+                    if u <= 0.0 {
+                        return Err(rd.err(Some(v.span()), "detector.hysteresis", format!("expected a band above 0 m/s, found {u} m/s")));
+                    }
+                    HysteresisSpec::Airflow(u)
+                } else {
+                    match parse_quantity(s, Dimension::Voltage) {
+                        Ok(x) if x > 0.0 => HysteresisSpec::Volts(x),
+                        _ => {
+                            return Err(rd.err(
+                                Some(v.span()),
+                                "detector.hysteresis",
+                                format!("expected an airflow band such as \"0.05 m/s\", a voltage band such as \"20 mV\", or \"none\"; found \"{s}\""),
+                            ))
+                        }
+                    }
+                }
+            }
+            Scalar::Number(n) => {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "detector.hysteresis",
+                    format!("missing unit: expected an airflow band such as \"0.05 m/s\" or a voltage band such as \"20 mV\", found the bare number {n}"),
+                ))
+            }
+        },
+    };
+    let feedback_ohm = sz(rd, &t.feedback, "detector.feedback")?;
+    let input_resistor_ohm = sz(rd, &t.input_resistor, "detector.input_resistor")?;
+    let normal_airflow_m_per_s = match &t.normal_airflow {
+        Some(v) => {
+            let u = rd.non_negative(v, "detector.normal_airflow", Dimension::Velocity)?;
+            let wrong_side = match trip_on {
+                TripDirection::Rising => u >= trip_airflow_m_per_s,
+                TripDirection::Falling => u <= trip_airflow_m_per_s,
+            };
+            if wrong_side {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "detector.normal_airflow",
+                    format!(
+                        "a detector that trips on {} airflow needs its normal airflow {} the trip airflow ({trip_airflow_m_per_s} m/s), found {u} m/s",
+                        trip_on.name(),
+                        if trip_on == TripDirection::Rising { "below" } else { "above" }
+                    ),
+                ));
+            }
+            u
+        }
+        None => match trip_on {
+            TripDirection::Rising => {
+                rd.assumptions.push(
+                    "detector.normal_airflow not given: still air (0 m/s) is the normal state"
+                        .into(),
+                );
+                0.0
+            }
+            TripDirection::Falling => {
+                rd.assumptions.push(format!(
+                    "detector.normal_airflow not given: twice the trip airflow ({} m/s) taken as the normal running airflow",
+                    2.0 * trip_airflow_m_per_s
+                ));
+                2.0 * trip_airflow_m_per_s
+            }
+        },
+    };
+    let detector = Detector {
+        trip_airflow_m_per_s,
+        normal_airflow_m_per_s,
+        trip_on,
+        reference_rail,
+        top_ohm,
+        trimmer_ohm,
+        bottom_ohm,
+        trimmer_position,
+        divider_current_a,
+        hysteresis,
+        feedback_ohm,
+        input_resistor_ohm,
+    };
+
+    let comparator = build_comparator(rd, raw.comparator.as_ref(), reference_rail, has_reg)?;
+    let output = match &raw.output {
+        Some(o) => Some(build_output(rd, o, has_reg, &comparator, &supply)?),
+        None => None,
+    };
+    let ratings = match &raw.ratings {
+        None => {
+            rd.assumptions.push("ratings not given: resistors run at no more than 50 % of rated power (common practice); trimmer rated 0.1 W (typical)".into());
+            RatingsSpec {
+                resistor_derating: 0.5,
+                trimmer_power_w: 0.1,
+            }
+        }
+        Some(g) => RatingsSpec {
+            resistor_derating: rd.or_default(
+                &g.resistor_derating,
+                0.5,
+                "ratings.resistor_derating not given: 50 % (common practice)",
+                |r, v| r.fraction_in(v, "ratings.resistor_derating", 0.05, 1.0),
+            )?,
+            trimmer_power_w: rd.or_default(
+                &g.trimmer_power,
+                0.1,
+                "ratings.trimmer_power not given: 0.1 W (typical)",
+                |r, v| r.positive(v, "ratings.trimmer_power", Dimension::Power),
+            )?,
+        },
+    };
+
+    Ok(Design {
+        title,
+        e_series,
+        ambient,
+        supply,
+        element,
+        element_tolerance,
+        drive,
+        drive_tolerance,
+        overheat,
+        detector,
+        comparator,
+        output,
+        ratings,
+        assumptions: std::mem::take(&mut rd.assumptions),
+    })
+}
+
+fn build_comparator(
+    rd: &mut Reader<'_>,
+    c: Option<&raw::RawComparator>,
+    default_rail: Rail,
+    has_reg: bool,
+) -> R<ComparatorSpec> {
+    // Typical figures of the open-collector comparator class (no specific
+    // part): offset 5 mV, bias 250 nA, common mode 0 … V+ − 1.5 V, sink
+    // 4 mA at 0.4 V (the class specifies its 0.4 V low level at 4 mA), supply 2–36 V, 1 mA supply current.
+    let empty = raw::RawComparator {
+        rail: None,
+        offset: None,
+        bias_current: None,
+        common_mode_low: None,
+        common_mode_headroom: None,
+        sink_max: None,
+        output_low: None,
+        supply_min: None,
+        supply_max: None,
+        supply_current: None,
+        pullup: None,
+    };
+    let typical = crate::circuit::comparator::ComparatorParams::typical_open_collector();
+    let section_given = c.is_some();
+    if !section_given {
+        rd.assumptions.push("no [comparator] section: typical open-collector comparator figures used (offset 5 mV, bias 250 nA, common mode 0 V to V+ − 1.5 V, sink 4 mA at 0.4 V, supply 2–36 V, 1 mA)".into());
+    }
+    let c = c.unwrap_or(&empty);
+    let rail = match &c.rail {
+        Some(w) => rd.rail(w, "comparator.rail", has_reg)?,
+        None => {
+            rd.assumptions.push(format!(
+                "comparator.rail not given: the comparator is fed from the {} rail, like the reference",
+                default_rail.name()
+            ));
+            default_rail
+        }
+    };
+    let field = |rd: &mut Reader<'_>,
+                 v: &Option<Value>,
+                 name: &str,
+                 dim: Dimension,
+                 typical: f64,
+                 shown: &str|
+     -> R<f64> {
+        let full = format!("comparator.{name}");
+        match v {
+            Some(v) => rd.non_negative(v, &full, dim),
+            None => {
+                if section_given {
+                    rd.assumptions.push(format!("{full} not given: {shown} assumed (typical of the open-collector comparator class)"));
+                }
+                Ok(typical)
+            }
+        }
+    };
+    let offset_v = field(rd, &c.offset, "offset", Dimension::Voltage, 5e-3, "5 mV")?;
+    let bias_a = field(
+        rd,
+        &c.bias_current,
+        "bias_current",
+        Dimension::Current,
+        250e-9,
+        "250 nA",
+    )?;
+    let common_mode_low_v = field(
+        rd,
+        &c.common_mode_low,
+        "common_mode_low",
+        Dimension::Voltage,
+        0.0,
+        "0 V",
+    )?;
+    let common_mode_headroom_v = field(
+        rd,
+        &c.common_mode_headroom,
+        "common_mode_headroom",
+        Dimension::Voltage,
+        1.5,
+        "1.5 V",
+    )?;
+    let sink_max_a = field(
+        rd,
+        &c.sink_max,
+        "sink_max",
+        Dimension::Current,
+        typical.output_sink_max_a,
+        "4 mA",
+    )?;
+    let output_low_v = field(
+        rd,
+        &c.output_low,
+        "output_low",
+        Dimension::Voltage,
+        0.4,
+        "0.4 V",
+    )?;
+    let supply_min_v = field(
+        rd,
+        &c.supply_min,
+        "supply_min",
+        Dimension::Voltage,
+        2.0,
+        "2 V",
+    )?;
+    let supply_max_v = field(
+        rd,
+        &c.supply_max,
+        "supply_max",
+        Dimension::Voltage,
+        36.0,
+        "36 V",
+    )?;
+    let supply_current_a = field(
+        rd,
+        &c.supply_current,
+        "supply_current",
+        Dimension::Current,
+        1e-3,
+        "1 mA",
+    )?;
+    let pullup_ohm = match &c.pullup {
+        Some(v) => rd.sizable(v, "comparator.pullup", Dimension::Resistance)?,
+        None => Sizable::Auto,
+    };
+    Ok(ComparatorSpec {
+        rail,
+        offset_v,
+        bias_a,
+        common_mode_low_v,
+        common_mode_headroom_v,
+        sink_max_a,
+        output_low_v,
+        supply_min_v,
+        supply_max_v,
+        supply_current_a,
+        pullup_ohm,
+    })
+}
+
+fn build_output(
+    rd: &mut Reader<'_>,
+    o: &raw::RawOutput,
+    has_reg: bool,
+    comparator: &ComparatorSpec,
+    supply: &Supply,
+) -> R<OutputSpec> {
+    let stage = match &o.stage {
+        None => StageKind::Auto,
+        Some(w) => match rd.word(
+            w,
+            "output.stage",
+            &["auto", "direct", "npn-low-side", "pnp-high-side"],
+        )? {
+            "auto" => StageKind::Auto,
+            "direct" => StageKind::Direct,
+            "npn-low-side" => StageKind::NpnLowSide,
+            _ => StageKind::PnpHighSide,
+        },
+    };
+    let near = Some(o.load.span());
+    let load = match rd.word(&o.load, "output.load", &["led", "buzzer", "relay"])? {
+        "led" => Load::Led {
+            forward_v: rd.positive(
+                rd.required(
+                    &o.led_forward,
+                    "output.led_forward",
+                    near.clone(),
+                    "the LED forward voltage, e.g. led_forward = \"2.0 V\"",
+                )?,
+                "output.led_forward",
+                Dimension::Voltage,
+            )?,
+            current_a: rd.positive(
+                rd.required(
+                    &o.led_current,
+                    "output.led_current",
+                    near,
+                    "the wanted LED current, e.g. led_current = \"5 mA\"",
+                )?,
+                "output.led_current",
+                Dimension::Current,
+            )?,
+        },
+        "buzzer" => Load::Buzzer {
+            current_a: rd.positive(
+                rd.required(
+                    &o.buzzer_current,
+                    "output.buzzer_current",
+                    near,
+                    "the buzzer current at its rated voltage, e.g. buzzer_current = \"25 mA\"",
+                )?,
+                "output.buzzer_current",
+                Dimension::Current,
+            )?,
+        },
+        _ => Load::Relay {
+            coil_v: rd.positive(
+                rd.required(
+                    &o.coil_voltage,
+                    "output.coil_voltage",
+                    near.clone(),
+                    "the relay coil's rated voltage, e.g. coil_voltage = \"12 V\"",
+                )?,
+                "output.coil_voltage",
+                Dimension::Voltage,
+            )?,
+            coil_ohm: rd.positive(
+                rd.required(
+                    &o.coil_resistance,
+                    "output.coil_resistance",
+                    near,
+                    "the relay coil resistance, e.g. coil_resistance = \"400 ohm\"",
+                )?,
+                "output.coil_resistance",
+                Dimension::Resistance,
+            )?,
+            contact_rating: o.contact_rating.as_ref().map(|w| w.get_ref().clone()),
+            switches_mains: o.switches_mains.as_ref().is_some_and(|b| *b.get_ref()),
+        },
+    };
+    let rail = match &o.rail {
+        Some(w) => rd.rail(w, "output.rail", has_reg)?,
+        None => {
+            rd.assumptions
+                .push("output.rail not given: the load is fed from the input rail".into());
+            Rail::Input
+        }
+    };
+    // Keys that belong to another load are an error, not silently ignored.
+    let load_name = match load {
+        Load::Led { .. } => "led",
+        Load::Buzzer { .. } => "buzzer",
+        Load::Relay { .. } => "relay",
+    };
+    let foreign: [(&str, &str, Option<std::ops::Range<usize>>); 7] = [
+        (
+            "led_forward",
+            "led",
+            o.led_forward.as_ref().map(|v| v.span()),
+        ),
+        (
+            "led_current",
+            "led",
+            o.led_current.as_ref().map(|v| v.span()),
+        ),
+        (
+            "buzzer_current",
+            "buzzer",
+            o.buzzer_current.as_ref().map(|v| v.span()),
+        ),
+        (
+            "coil_resistance",
+            "relay",
+            o.coil_resistance.as_ref().map(|v| v.span()),
+        ),
+        (
+            "coil_voltage",
+            "relay",
+            o.coil_voltage.as_ref().map(|v| v.span()),
+        ),
+        (
+            "contact_rating",
+            "relay",
+            o.contact_rating.as_ref().map(|v| v.span()),
+        ),
+        (
+            "switches_mains",
+            "relay",
+            o.switches_mains.as_ref().map(|v| v.span()),
+        ),
+    ];
+    for (key, owner, span) in foreign {
+        if let Some(span) = span {
+            if owner != load_name {
+                return Err(rd.err(
+                    Some(span),
+                    &format!("output.{key}"),
+                    format!(
+                        "`{key}` belongs to a {owner} load, but this output drives a {load_name}"
+                    ),
+                ));
+            }
+        }
+    }
+    if load_name != "relay" && o.diode.is_some() {
+        return Err(rd.err(
+            Some(o.load.span()),
+            "output.diode",
+            format!("a flyback diode is only fitted across a relay coil, but this output drives a {load_name}"),
+        ));
+    }
+    // `auto` picks the simplest stage within ratings: the comparator output
+    // directly when an LED or buzzer current is within its sink limit,
+    // otherwise an NPN low-side switch (a relay coil always gets a switch).
+    let stage = if stage == StageKind::Auto {
+        let rail_v = supply.rail_v(rail);
+        let (load_a, what) = match load {
+            Load::Led { current_a, .. } => (current_a, "LED"),
+            Load::Buzzer { current_a } => (current_a, "buzzer"),
+            Load::Relay { coil_ohm, .. } => (rail_v / coil_ohm, "relay coil"),
+        };
+        let direct = load_a <= comparator.sink_max_a && load_name != "relay";
+        rd.assumptions.push(format!(
+            "output.stage \"auto\": {} ({what} current {:.1} mA against the comparator's {:.1} mA sink limit)",
+            if direct { "the comparator output drives the load directly" } else { "an NPN low-side switch" },
+            load_a * 1e3,
+            comparator.sink_max_a * 1e3
+        ));
+        if direct {
+            StageKind::Direct
+        } else {
+            StageKind::NpnLowSide
+        }
+    } else {
+        stage
+    };
+    if stage == StageKind::Direct {
+        if let Some(v) = &o.forced_gain {
+            return Err(rd.err(Some(v.span()), "output.forced_gain", "a forced gain applies to a transistor stage, but the comparator drives this load directly".into()));
+        }
+        if o.transistor.is_some() {
+            return Err(rd.err(Some(o.load.span()), "output.transistor", "transistor figures apply to a transistor stage, but the comparator drives this load directly".into()));
+        }
+    }
+    let gain_note = if stage == StageKind::Direct {
+        ""
+    } else {
+        "output.forced_gain not given: 10 (common practice for a saturated switch)"
+    };
+    let forced_gain = rd.or_default(&o.forced_gain, 10.0, gain_note, |r, v| {
+        let x = r.quantity(v, "output.forced_gain", Dimension::Fraction)?;
+        if (2.0..=50.0).contains(&x) {
+            Ok(x)
+        } else {
+            Err(r.err(
+                Some(v.span()),
+                "output.forced_gain",
+                format!("expected a forced gain between 2 and 50, found {x}"),
+            ))
+        }
+    })?;
+    // Typical small-signal transistor class figures (no specific part).
+    let transistor = match &o.transistor {
+        None => {
+            if stage != StageKind::Direct {
+                rd.assumptions.push("no [output.transistor]: typical small-signal transistor figures used (Vce 40 V, Ic 200 mA, 500 mW, hFE ≥ 100, Vce(sat) 0.3 V, Vbe 0.7 V)".into());
+            }
+            {
+                let t = crate::circuit::switch::TransistorRatings::typical_small_signal();
+                TransistorSpec {
+                    vce_max_v: t.vce_max_v,
+                    ic_max_a: t.ic_max_a,
+                    power_max_w: t.p_max_w,
+                    hfe_min: t.hfe_min,
+                    vce_sat_v: t.vce_sat_v,
+                    vbe_on_v: t.vbe_on_v,
+                }
+            }
+        }
+        Some(t) => {
+            let g = |rd: &Reader, v: &Option<Value>, name: &str, dim: Dimension| -> R<f64> {
+                let full = format!("output.transistor.{name}");
+                rd.positive(
+                    rd.required(
+                        v,
+                        &full,
+                        None,
+                        "every transistor figure when the section is given",
+                    )?,
+                    &full,
+                    dim,
+                )
+            };
+            TransistorSpec {
+                vce_max_v: g(rd, &t.vce_max, "vce_max", Dimension::Voltage)?,
+                ic_max_a: g(rd, &t.ic_max, "ic_max", Dimension::Current)?,
+                power_max_w: g(rd, &t.power_max, "power_max", Dimension::Power)?,
+                hfe_min: g(rd, &t.hfe_min, "hfe_min", Dimension::Fraction)?,
+                vce_sat_v: g(rd, &t.vce_sat, "vce_sat", Dimension::Voltage)?,
+                vbe_on_v: g(rd, &t.vbe_on, "vbe_on", Dimension::Voltage)?,
+            }
+        }
+    };
+    let diode = match &o.diode {
+        None => {
+            if matches!(load, Load::Relay { .. }) {
+                rd.assumptions.push("no [output.diode]: typical general-purpose rectifier figures used (400 V, 1 A)".into());
+            }
+            DiodeSpec {
+                reverse_max_v: 400.0,
+                forward_max_a: 1.0,
+            }
+        }
+        Some(d) => DiodeSpec {
+            reverse_max_v: rd.positive(
+                rd.required(
+                    &d.reverse_max,
+                    "output.diode.reverse_max",
+                    None,
+                    "the diode's reverse voltage rating",
+                )?,
+                "output.diode.reverse_max",
+                Dimension::Voltage,
+            )?,
+            forward_max_a: rd.positive(
+                rd.required(
+                    &d.forward_max,
+                    "output.diode.forward_max",
+                    None,
+                    "the diode's forward current rating",
+                )?,
+                "output.diode.forward_max",
+                Dimension::Current,
+            )?,
+        },
+    };
+    Ok(OutputSpec {
+        stage,
+        load,
+        rail,
+        forced_gain,
+        transistor,
+        diode,
+    })
+}

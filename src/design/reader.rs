@@ -1,0 +1,213 @@
+//! Reading values out of the raw file: each value is parsed with its unit
+//! and checked, and every failure becomes a diagnostic that points at it.
+
+use super::diagnostic::{did_you_mean, Diagnostic};
+use super::model::{Rail, Sizable};
+use super::raw::{Scalar, Value, Word};
+use crate::quantity::{parse_quantity, Dimension};
+
+/// Reads one design file's values, turning each into a diagnostic that
+/// points at it when it is wrong.
+pub(crate) struct Reader<'a> {
+    pub(crate) file: &'a str,
+    pub(crate) source: &'a str,
+    pub(crate) assumptions: Vec<String>,
+}
+
+pub(crate) type R<T> = Result<T, Box<Diagnostic>>;
+
+impl<'a> Reader<'a> {
+    pub(crate) fn err(
+        &self,
+        span: Option<std::ops::Range<usize>>,
+        field: &str,
+        message: String,
+    ) -> Box<Diagnostic> {
+        Box::new(Diagnostic::at(
+            self.file,
+            self.source,
+            span,
+            Some(field),
+            message,
+        ))
+    }
+
+    pub(crate) fn quantity(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
+        let text = match v.get_ref() {
+            Scalar::Text(t) => t.clone(),
+            Scalar::Number(n) => {
+                if dim == Dimension::Fraction {
+                    return Ok(*n);
+                }
+                return Err(self.err(
+                    Some(v.span()),
+                    field,
+                    format!(
+                        "missing unit: expected {} with its unit, such as {}, found the bare number {n}",
+                        dim.name(),
+                        dim.examples()
+                    ),
+                ));
+            }
+        };
+        parse_quantity(&text, dim).map_err(|e| self.err(Some(v.span()), field, e.to_string()))
+    }
+
+    pub(crate) fn positive(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
+        let x = self.quantity(v, field, dim)?;
+        if x > 0.0 {
+            Ok(x)
+        } else {
+            Err(self.err(
+                Some(v.span()),
+                field,
+                format!("expected {} above zero, found {x}", dim.name()),
+            ))
+        }
+    }
+
+    pub(crate) fn non_negative(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
+        let x = self.quantity(v, field, dim)?;
+        if x >= 0.0 {
+            Ok(x)
+        } else {
+            Err(self.err(
+                Some(v.span()),
+                field,
+                format!("expected {} of at least zero, found {x}", dim.name()),
+            ))
+        }
+    }
+
+    pub(crate) fn fraction_in(&self, v: &Value, field: &str, lo: f64, hi: f64) -> R<f64> {
+        let x = self.quantity(v, field, Dimension::Fraction)?;
+        if x >= lo && x <= hi {
+            Ok(x)
+        } else {
+            Err(self.err(
+                Some(v.span()),
+                field,
+                format!(
+                    "expected a fraction between {} % and {} %, found {} %",
+                    lo * 100.0,
+                    hi * 100.0,
+                    x * 100.0
+                ),
+            ))
+        }
+    }
+
+    pub(crate) fn opt<T>(
+        &mut self,
+        v: &Option<Value>,
+        f: impl FnOnce(&Self, &Value) -> R<T>,
+    ) -> R<Option<T>> {
+        match v {
+            Some(v) => f(self, v).map(Some),
+            None => Ok(None),
+        }
+    }
+
+    pub(crate) fn or_default<T>(
+        &mut self,
+        v: &Option<Value>,
+        default: T,
+        note: &str,
+        f: impl FnOnce(&Self, &Value) -> R<T>,
+    ) -> R<T> {
+        match v {
+            Some(v) => f(self, v),
+            None => {
+                if !note.is_empty() {
+                    self.assumptions.push(note.to_string());
+                }
+                Ok(default)
+            }
+        }
+    }
+
+    pub(crate) fn required<'v>(
+        &self,
+        v: &'v Option<Value>,
+        field: &str,
+        near: Option<std::ops::Range<usize>>,
+        what: &str,
+    ) -> R<&'v Value> {
+        v.as_ref()
+            .ok_or_else(|| self.err(near, field, format!("missing: {what}")))
+    }
+
+    pub(crate) fn sizable(&self, v: &Value, field: &str, dim: Dimension) -> R<Sizable> {
+        if let Scalar::Text(t) = v.get_ref() {
+            if t.trim().eq_ignore_ascii_case("auto") {
+                return Ok(Sizable::Auto);
+            }
+        }
+        self.positive(v, field, dim).map(Sizable::Fixed)
+    }
+
+    pub(crate) fn word(&self, w: &Word, field: &str, choices: &[&'static str]) -> R<&'static str> {
+        let text = w.get_ref().trim();
+        if let Some(c) = choices.iter().find(|c| c.eq_ignore_ascii_case(text)) {
+            return Ok(c);
+        }
+        let help =
+            did_you_mean(text, choices.iter().copied()).map(|c| format!("did you mean \"{c}\"?"));
+        Err(Box::new(
+            Diagnostic::at(
+                self.file,
+                self.source,
+                Some(w.span()),
+                Some(field),
+                format!("expected one of {}, found \"{text}\"", quote_list(choices)),
+            )
+            .with_help(help),
+        ))
+    }
+
+    pub(crate) fn rail(&self, w: &Word, field: &str, has_regulator: bool) -> R<Rail> {
+        let rail = match self.word(w, field, &["input", "regulated"])? {
+            "input" => Rail::Input,
+            _ => Rail::Regulated,
+        };
+        if rail == Rail::Regulated && !has_regulator {
+            return Err(self.err(
+                Some(w.span()),
+                field,
+                "the \"regulated\" rail needs a [supply.regulator] section, and there is none"
+                    .into(),
+            ));
+        }
+        Ok(rail)
+    }
+}
+
+fn quote_list(items: &[&str]) -> String {
+    items
+        .iter()
+        .map(|s| format!("\"{s}\""))
+        .collect::<Vec<_>>()
+        .join(", ")
+}
+
+/// Turn a toml/serde error into a diagnostic, with a "did you mean" hint
+/// for unknown keys.
+pub(crate) fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagnostic {
+    let message = e.message().trim().to_string();
+    let mut help = None;
+    if let Some(rest) = message.strip_prefix("unknown field `") {
+        if let Some((unknown, tail)) = rest.split_once('`') {
+            let expected: Vec<&str> = tail.split('`').skip(1).step_by(2).collect();
+            help = did_you_mean(unknown, expected.iter().copied())
+                .map(|c| format!("did you mean `{c}`?"));
+        }
+    }
+    let message = if message.starts_with("missing field") {
+        format!("{message} (a required key is absent from this table)")
+    } else if message.contains("untagged enum Scalar") {
+        "expected a number, or a quoted string with its unit such as \"82 ohm\"".to_string()
+    } else {
+        message
+    };
+    Diagnostic::at(file, source, e.span(), None, message).with_help(help)
+}
