@@ -53,7 +53,7 @@ fn ratiometric_reference_cancels_part_of_the_supply_drift() {
             .unwrap_or_else(|| panic!("no drift row with '{needle}'"))
     };
     let ratiometric = shift("reference tracking it");
-    let fixed = shift("reference held at nominal");
+    let fixed = shift("reference held");
     assert!(
         ratiometric.abs() < fixed.abs(),
         "ratiometric {ratiometric} m/s, fixed {fixed} m/s"

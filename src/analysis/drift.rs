@@ -188,14 +188,12 @@ pub fn drift(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
                 ..nominal
             };
             push(
-                format!("element rail low ({lo:.2} V), reference tracking it (ratiometric)"),
+                "element rail low, reference tracking it (ratiometric)".to_string(),
                 same,
                 er != ref_rail,
             );
             push(
-                format!(
-                    "element rail low ({lo:.2} V), reference held at nominal (not ratiometric)"
-                ),
+                "element rail low, reference held (not ratiometric)".to_string(),
                 Condition {
                     element_rail_v: lo,
                     ..nominal

@@ -7,16 +7,23 @@ use std::fmt::Write;
 /// A plain aligned table; each column left- (`l`) or right-aligned (`r`).
 struct Table {
     rows: Vec<Vec<String>>,
+    /// A note printed under a row (index into `rows`), wrapped.
+    notes: Vec<(usize, String)>,
 }
 
 impl Table {
     fn new(header: &[&str]) -> Self {
         Self {
             rows: vec![header.iter().map(|s| s.to_string()).collect()],
+            notes: Vec::new(),
         }
     }
     fn push(&mut self, row: Vec<String>) {
         self.rows.push(row);
+    }
+    fn push_with_note(&mut self, row: Vec<String>, note: String) {
+        self.rows.push(row);
+        self.notes.push((self.rows.len() - 1, note));
     }
     fn render(&self, out: &mut String, indent: &str, align: &str) {
         let align: Vec<char> = align.chars().collect();
@@ -31,7 +38,7 @@ impl Table {
                     .unwrap_or(0)
             })
             .collect();
-        for row in &self.rows {
+        for (r, row) in self.rows.iter().enumerate() {
             let mut line = String::from(indent);
             for (i, cell) in row.iter().enumerate() {
                 let pad = widths[i] - cell.chars().count();
@@ -50,8 +57,40 @@ impl Table {
             }
             out.push_str(line.trim_end());
             out.push('\n');
+            for (_, note) in self.notes.iter().filter(|(i, _)| *i == r) {
+                let hang = format!("{indent}{}  ", " ".repeat(widths[0]));
+                out.push_str(&wrap(note, &hang, &hang, WRAP_WIDTH));
+            }
         }
     }
+}
+
+/// Width to which running text is wrapped.
+const WRAP_WIDTH: usize = 100;
+
+/// Wrap `text` at word boundaries to `width` characters, the first line
+/// starting with `first`, the others with `rest`; ends with a newline.
+fn wrap(text: &str, first: &str, rest: &str, width: usize) -> String {
+    let mut out = String::new();
+    let mut line = String::from(first);
+    let mut empty = true;
+    for word in text.split_whitespace() {
+        let len = line.chars().count() + word.chars().count() + usize::from(!empty);
+        if !empty && len > width {
+            out.push_str(&line);
+            out.push('\n');
+            line = String::from(rest);
+            empty = true;
+        }
+        if !empty {
+            line.push(' ');
+        }
+        line.push_str(word);
+        empty = false;
+    }
+    out.push_str(&line);
+    out.push('\n');
+    out
 }
 
 fn eng(x: f64, unit: &str) -> String {
@@ -207,10 +246,10 @@ pub fn render(r: &Report, file: &str) -> String {
         tr.non_inverting_input.clone(),
     );
     kv(&mut out, "inverting input (−)", tr.inverting_input.clone());
-    let _ = writeln!(out, "  {}", tr.hysteresis_note);
+    out.push_str(&wrap(&tr.hysteresis_note, "  ", "  ", WRAP_WIDTH));
 
     heading(&mut out, "Bill of values");
-    let mut t = Table::new(&["ref", "part", "value", "exact", "rating", "why"]);
+    let mut t = Table::new(&["ref", "part", "value", "exact", "rating"]);
     for v in &r.values {
         let exact = match (v.exact, v.value_ohm, v.value_a, v.value_f) {
             (Some(x), Some(_), _, _) => eng(x, "Ω"),
@@ -223,21 +262,23 @@ pub fn render(r: &Report, file: &str) -> String {
             Some(w) => format!("{} · {}", eng(w, "W"), v.rating),
             None => v.rating.clone(),
         };
-        let series = if v.e_series.is_empty() || v.e_series == "given" {
+        let series = if v.e_series.is_empty() {
             String::new()
         } else {
-            format!(" {}", v.e_series)
+            format!(" ({})", v.e_series)
         };
-        t.push(vec![
-            v.designator.clone(),
-            v.part.clone(),
-            format!("{}{}", v.text, series),
-            exact,
-            rating,
+        t.push_with_note(
+            vec![
+                v.designator.clone(),
+                v.part.clone(),
+                format!("{}{}", v.text, series),
+                exact,
+                rating,
+            ],
             v.reason.clone(),
-        ]);
+        );
     }
-    t.render(&mut out, "  ", "llllll");
+    t.render(&mut out, "  ", "lllll");
 
     if !r.drift.is_empty() {
         heading(&mut out, "Trip-point drift");
@@ -290,31 +331,44 @@ pub fn render(r: &Report, file: &str) -> String {
 
     heading(&mut out, "Checks");
     for c in &r.checks {
-        let _ = writeln!(
-            out,
-            "  {} {} — {}",
+        let text = format!(
+            "{} {} — {}",
             if c.passed { "pass" } else { "FAIL" },
             c.name,
             c.detail
         );
+        out.push_str(&wrap(&text, "  ", "       ", WRAP_WIDTH));
     }
 
     if !r.warnings.is_empty() {
         heading(&mut out, "Warnings");
         for w in &r.warnings {
-            let _ = writeln!(out, "  ? {w}");
+            out.push_str(&wrap(w, "  ? ", "    ", WRAP_WIDTH));
         }
     }
 
     heading(&mut out, "Cautions");
     for c in &r.cautions {
-        let _ = writeln!(out, "  ! {c}");
+        out.push_str(&wrap(c, "  ! ", "    ", WRAP_WIDTH));
     }
     if !r.assumptions.is_empty() {
         heading(&mut out, "Assumed (the file left these open)");
         for a in &r.assumptions {
-            let _ = writeln!(out, "  - {a}");
+            out.push_str(&wrap(a, "  - ", "    ", WRAP_WIDTH));
         }
     }
     out
+}
+
+#[cfg(test)]
+mod tests {
+    use super::wrap;
+
+    #[test]
+    fn wraps_at_word_boundaries_with_hanging_indent() {
+        let w = wrap("one two three four five", "- ", "  ", 10);
+        assert_eq!(w, "- one two\n  three\n  four\n  five\n");
+        // A word longer than the width stands on its own line.
+        assert_eq!(wrap("abcdefghijkl x", "", "", 5), "abcdefghijkl\nx\n");
+    }
 }
