@@ -90,3 +90,24 @@ fn auto_series_resistor_meets_the_overheat_within_snapping() {
     let rise = still.element_temperature_c - r.ambient_c;
     assert!((rise - 150.0).abs() < 15.0, "rise {rise} K");
 }
+
+#[test]
+fn element_past_its_limit_fails_with_a_caution() {
+    // The cabinet example's bare tungsten filament asked for 390 K of
+    // overheat: at the hottest ambient it passes tungsten's 400 °C limit in
+    // air (materials preset), so the limit check fails and a caution says so.
+    let text = example("cabinet-lamp-filament.toml")
+        .replace("overheat_rise = \"150 K\"", "overheat_rise = \"390 K\"");
+    let r = report_for(&text);
+    let limit = r
+        .checks
+        .iter()
+        .find(|c| c.name == "element temperature within its limit")
+        .unwrap();
+    assert!(!limit.passed, "{}", limit.detail);
+    assert!(r
+        .cautions
+        .iter()
+        .any(|c| c.contains("above its safe limit")));
+    assert!(!r.passed());
+}

@@ -368,6 +368,16 @@ pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
             "Hot surface: the element runs at about {t_c:.0} °C in still air. Do not touch it while powered; mount it where fingers and loose material cannot reach it."
         ));
     }
+    if let Some(t_max) = core.element.max_temperature_k() {
+        let (t_hot, how) = hottest_still_air(design, core);
+        if t_hot > t_max {
+            v.push(format!(
+                "The element would reach {:.0} °C in still air ({how}), above its safe limit of {:.0} °C in air: it can oxidise, drift or burn out, and it is a stronger ignition source. Ask for less overheat or choose an element rated hotter.",
+                to_c(t_hot),
+                to_c(t_max)
+            ));
+        }
+    }
     let tungsten = matches!(
         design.element.resistance_law(),
         crate::element::ResistanceLaw::Tungsten(_)
