@@ -14,7 +14,13 @@ use std::process::ExitCode;
 /// Design calculator for airflow and draught detectors built around a
 /// self-heated resistive element.
 #[derive(Debug, Parser)]
-#[command(name = "draftwire", version, about, long_about = None)]
+#[command(
+    name = "draftwire",
+    version,
+    about,
+    long_about = None,
+    after_help = "Exit status: 0 every check passed, 1 a design check failed, 2 bad input or usage.\nReferences: docs/cli.md, docs/design-file.md, docs/model.md."
+)]
 struct Cli {
     #[command(subcommand)]
     command: Command,
@@ -52,7 +58,7 @@ enum Format {
     Text,
     /// JSON, units in the key names.
     Json,
-    /// CSV, one table (see --table).
+    /// CSV (for `size`, one table: see --table).
     Csv,
 }
 
