@@ -34,6 +34,17 @@ impl<'a> Reader<'a> {
 
     pub(crate) fn quantity(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
         let text = match v.get_ref() {
+            Scalar::Text(t) if t.trim().eq_ignore_ascii_case("auto") => {
+                return Err(self.err(
+                    Some(v.span()),
+                    field,
+                    format!(
+                        "\"auto\" is not accepted here: draftwire does not size this value; give {} with its unit, such as {}",
+                        dim.name(),
+                        dim.examples()
+                    ),
+                ))
+            }
             Scalar::Text(t) => t.clone(),
             Scalar::Number(n) => {
                 if dim == Dimension::Fraction {
@@ -202,8 +213,9 @@ pub(crate) fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagn
                 .map(|c| format!("did you mean `{c}`?"));
         }
     }
-    let message = if message.starts_with("missing field") {
-        format!("{message} (a required key is absent from this table)")
+    let message = if let Some(rest) = message.strip_prefix("missing field `") {
+        let key = rest.split('`').next().unwrap_or_default();
+        format!("missing required key or table `{key}` (docs/design-file.md lists what it holds)")
     } else if message.contains("untagged enum Scalar") {
         "expected a number, or a quoted string with its unit such as \"82 ohm\"".to_string()
     } else {
