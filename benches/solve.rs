@@ -3,7 +3,11 @@
 
 use divan::black_box;
 use draftwire::drive::Drive;
+use draftwire::element::cooling::{GeometryCooling, Shape};
 use draftwire::element::{CoolingLaw, Element, Environment, KingsLaw, LinearTcr, ResistanceLaw};
+use draftwire::physics::convection::{ForcedCorrelation, NaturalCorrelation};
+use draftwire::physics::materials::Material;
+use draftwire::physics::platinum::CallendarVanDusen;
 use draftwire::solve::{airflow_for_sense, operating_point};
 
 fn main() {
@@ -56,6 +60,49 @@ fn trip_airflow_solve(bencher: divan::Bencher) {
             black_box(&env),
             black_box(level),
             0.4,
+        )
+        .unwrap()
+    });
+}
+
+/// Invented example element: a 25 µm × 30 mm platinum wire (IEC 60751 law)
+/// cooled by the geometry model (Churchill & Bernstein, Churchill & Chu,
+/// radiation), the costliest cooling law per evaluation.
+fn platinum_wire() -> Element {
+    let cooling = GeometryCooling::new(
+        Shape::StraightWire,
+        25e-6,
+        30e-3,
+        Material::Platinum,
+        ForcedCorrelation::ChurchillBernstein,
+        NaturalCorrelation::ChurchillChu,
+        None,
+        0.0,
+    )
+    .unwrap();
+    Element::new(
+        ResistanceLaw::Platinum(CallendarVanDusen::iec60751(6.0).unwrap()),
+        CoolingLaw::Geometry(cooling),
+        4e-5,
+        None,
+    )
+    .unwrap()
+}
+
+#[divan::bench]
+fn operating_point_solve_geometry(bencher: divan::Bencher) {
+    let el = platinum_wire();
+    let env = Environment::at(293.15);
+    let drive = Drive::SeriesResistor {
+        rail_v: 5.0,
+        series_ohm: 30.0,
+    };
+    bencher.bench(|| {
+        operating_point(
+            black_box(&el),
+            black_box(&drive),
+            black_box(&env),
+            black_box(2.0),
         )
         .unwrap()
     });

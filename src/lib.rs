@@ -25,6 +25,7 @@
 //! # Ok::<(), Box<dyn std::error::Error>>(())
 //! ```
 #![forbid(unsafe_code)]
+#![warn(missing_docs)]
 
 pub mod analysis;
 pub mod circuit;

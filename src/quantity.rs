@@ -174,31 +174,56 @@ pub enum QuantityError {
     Empty,
     /// No number could be read at the start of the text.
     #[error("malformed number in \"{text}\": write a number such as 12, -5, 0.45, .5 or 1e-3 (with a decimal point, not a comma), then its unit")]
-    MalformedNumber { text: String },
+    MalformedNumber {
+        /// The text as given.
+        text: String,
+    },
     /// A bare number where a unit is required.
     #[error("missing unit in \"{text}\": expected a {expected} such as {}", .expected.examples())]
-    MissingUnit { text: String, expected: Dimension },
+    MissingUnit {
+        /// The text as given.
+        text: String,
+        /// The dimension the field expects.
+        expected: Dimension,
+    },
     /// A unit this parser does not know.
     #[error("unknown unit \"{unit}\" in \"{text}\": expected a {expected} such as {}", .expected.examples())]
     UnknownUnit {
+        /// The text as given.
         text: String,
+        /// The unit part that was not recognised.
         unit: String,
+        /// The dimension the field expects.
         expected: Dimension,
     },
     /// A known unit of another dimension.
     #[error("\"{text}\" is a {found} (unit \"{unit}\"), but a {expected} was expected, such as {}", .expected.examples())]
     WrongDimension {
+        /// The text as given.
         text: String,
+        /// The unit part of the text.
         unit: String,
+        /// The dimension of that unit.
         found: Dimension,
+        /// The dimension the field expects.
         expected: Dimension,
     },
     /// A spelling with more than one reasonable meaning.
     #[error("\"{text}\" is ambiguous: {hint}")]
-    Ambiguous { text: String, hint: String },
+    Ambiguous {
+        /// The text as given.
+        text: String,
+        /// How to write the intended meaning unambiguously.
+        hint: String,
+    },
     /// A value that cannot be physical or cannot be represented.
     #[error("\"{text}\" is out of range: {reason}")]
-    OutOfRange { text: String, reason: String },
+    OutOfRange {
+        /// The text as given.
+        text: String,
+        /// Why the value is out of range.
+        reason: String,
+    },
 }
 
 /// How a unit's number becomes the SI value.

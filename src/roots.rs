@@ -15,13 +15,28 @@ pub enum RootError {
     /// `f(a)` and `f(b)` have the same sign, so the interval holds no
     /// guaranteed root.
     #[error("no sign change on [{a}, {b}]: f(a) = {fa}, f(b) = {fb}")]
-    NotBracketed { a: f64, b: f64, fa: f64, fb: f64 },
+    NotBracketed {
+        /// Left end of the interval.
+        a: f64,
+        /// Right end of the interval.
+        b: f64,
+        /// f(a).
+        fa: f64,
+        /// f(b).
+        fb: f64,
+    },
     /// The function returned NaN or an infinity.
     #[error("function value is not finite at x = {x}")]
-    NotFinite { x: f64 },
+    NotFinite {
+        /// The abscissa where f was not finite.
+        x: f64,
+    },
     /// The evaluation budget ran out before the tolerance was met.
     #[error("no convergence after {evaluations} evaluations")]
-    NoConvergence { evaluations: usize },
+    NoConvergence {
+        /// Number of function evaluations spent.
+        evaluations: usize,
+    },
 }
 
 /// A converged root and how much work it took.

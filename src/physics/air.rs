@@ -105,13 +105,22 @@ const MAX_ALTITUDE_M: f64 = 11_000.0;
 pub enum AirError {
     /// Temperature must be finite and > 0 K.
     #[error("air temperature must be finite and > 0 K, got {value_k} K")]
-    Temperature { value_k: f64 },
+    Temperature {
+        /// The offending temperature, K.
+        value_k: f64,
+    },
     /// Pressure must be finite and > 0 Pa.
     #[error("air pressure must be finite and > 0 Pa, got {value_pa} Pa")]
-    Pressure { value_pa: f64 },
+    Pressure {
+        /// The offending pressure, Pa.
+        value_pa: f64,
+    },
     /// Altitude outside the troposphere model's range.
     #[error("altitude must lie within -5000 m to 11000 m (U.S. Standard Atmosphere 1976 troposphere), got {value_m} m")]
-    Altitude { value_m: f64 },
+    Altitude {
+        /// The offending geometric altitude, m.
+        value_m: f64,
+    },
 }
 
 /// Properties of dry air at one temperature and pressure (SI units).

@@ -74,22 +74,42 @@ const MORGAN_BANDS: [(f64, f64, f64); 5] = [
 pub enum ConvectionError {
     /// Diameter must be finite and > 0.
     #[error("cylinder diameter must be finite and > 0 m, got {value_m} m")]
-    Diameter { value_m: f64 },
+    Diameter {
+        /// The offending diameter, m.
+        value_m: f64,
+    },
     /// Length must be finite and > 0.
     #[error("cylinder length must be finite and > 0 m, got {value_m} m")]
-    Length { value_m: f64 },
+    Length {
+        /// The offending length, m.
+        value_m: f64,
+    },
     /// The cylinder model needs a length greater than the diameter.
     #[error("cylinder length ({length_m} m) must exceed its diameter ({diameter_m} m)")]
-    LengthNotAboveDiameter { length_m: f64, diameter_m: f64 },
+    LengthNotAboveDiameter {
+        /// The cylinder length, m.
+        length_m: f64,
+        /// The cylinder diameter, m.
+        diameter_m: f64,
+    },
     /// Surface temperature must be finite and > 0 K.
     #[error("surface temperature must be finite and > 0 K, got {value_k} K")]
-    SurfaceTemperature { value_k: f64 },
+    SurfaceTemperature {
+        /// The offending surface temperature, K.
+        value_k: f64,
+    },
     /// Ambient temperature must be finite and > 0 K.
     #[error("ambient temperature must be finite and > 0 K, got {value_k} K")]
-    AmbientTemperature { value_k: f64 },
+    AmbientTemperature {
+        /// The offending ambient temperature, K.
+        value_k: f64,
+    },
     /// Airflow must be finite.
     #[error("airflow must be finite, got {value_m_per_s} m/s")]
-    Airflow { value_m_per_s: f64 },
+    Airflow {
+        /// The offending airflow, m/s.
+        value_m_per_s: f64,
+    },
     /// Air properties could not be evaluated (e.g. bad pressure).
     #[error(transparent)]
     Air(#[from] AirError),

@@ -17,28 +17,71 @@ use crate::roots::{brent, RootError};
 pub enum TableError {
     /// Fewer than two points.
     #[error("a table needs at least 2 points, got {count}")]
-    TooFewPoints { count: usize },
+    TooFewPoints {
+        /// Number of points given.
+        count: usize,
+    },
     /// `xs` and `ys` have different lengths.
     #[error("xs has {xs} values but ys has {ys}; they must match")]
-    LengthMismatch { xs: usize, ys: usize },
+    LengthMismatch {
+        /// Number of abscissae given.
+        xs: usize,
+        /// Number of ordinates given.
+        ys: usize,
+    },
     /// A value is NaN or infinite.
     #[error("point {index} is not finite: x = {x}, y = {y}")]
-    NotFinite { index: usize, x: f64, y: f64 },
+    NotFinite {
+        /// Zero-based index of the point.
+        index: usize,
+        /// The point's abscissa, in the table's x unit.
+        x: f64,
+        /// The point's ordinate, in the table's y unit.
+        y: f64,
+    },
     /// `xs` must increase strictly.
     #[error("x must increase strictly: x[{index}] = {x} does not exceed x[{}] = {previous}", .index - 1)]
-    XNotIncreasing { index: usize, previous: f64, x: f64 },
+    XNotIncreasing {
+        /// Zero-based index of the offending point.
+        index: usize,
+        /// The abscissa of the point before it, in the table's x unit.
+        previous: f64,
+        /// The offending abscissa, in the table's x unit.
+        x: f64,
+    },
     /// `ys` must be strictly monotone (all increasing or all decreasing).
     #[error(
         "y must be strictly monotone: y[{index}] = {y} after y[{}] = {previous} breaks the trend set by the first two points",
         .index - 1
     )]
-    YNotMonotone { index: usize, previous: f64, y: f64 },
+    YNotMonotone {
+        /// Zero-based index of the offending point.
+        index: usize,
+        /// The ordinate of the point before it, in the table's y unit.
+        previous: f64,
+        /// The offending ordinate, in the table's y unit.
+        y: f64,
+    },
     /// The abscissa lies outside the table.
     #[error("x = {x} is outside the table range [{min}, {max}]")]
-    OutOfRange { x: f64, min: f64, max: f64 },
+    OutOfRange {
+        /// The requested abscissa, in the table's x unit.
+        x: f64,
+        /// The table's smallest abscissa.
+        min: f64,
+        /// The table's largest abscissa.
+        max: f64,
+    },
     /// The ordinate given to [`MonotoneTable::inverse`] lies outside the table.
     #[error("y = {y} is outside the table's value range [{min}, {max}]")]
-    ValueOutOfRange { y: f64, min: f64, max: f64 },
+    ValueOutOfRange {
+        /// The requested ordinate, in the table's y unit.
+        y: f64,
+        /// The table's smallest ordinate.
+        min: f64,
+        /// The table's largest ordinate.
+        max: f64,
+    },
     /// The inverse solve failed (cannot happen for a valid bracket; kept so
     /// that no path panics).
     #[error("inverse interpolation failed: {0}")]

@@ -29,22 +29,49 @@ pub const TYPICAL_OPERATING_RANGE_K: (f64, f64) = (2200.0, 3000.0);
 pub enum LampError {
     /// Rated voltage must be positive and finite.
     #[error("rated voltage must be positive and finite, got {volts} V")]
-    InvalidVoltage { volts: f64 },
+    InvalidVoltage {
+        /// The offending rated voltage, V.
+        volts: f64,
+    },
     /// Rated power must be positive and finite.
     #[error("rated power must be positive and finite, got {watts} W")]
-    InvalidPower { watts: f64 },
+    InvalidPower {
+        /// The offending rated power, W.
+        watts: f64,
+    },
     /// Cold resistance must be positive and finite.
     #[error("cold resistance must be positive and finite, got {r_ohm} ohm")]
-    InvalidColdResistance { r_ohm: f64 },
+    InvalidColdResistance {
+        /// The offending cold resistance, ohm.
+        r_ohm: f64,
+    },
     /// Cold temperature must lie where tungsten's resistivity is known.
     #[error("cold temperature {t_k} K is outside [{min_k}, {max_k}] K")]
-    ColdTemperatureOutOfRange { t_k: f64, min_k: f64, max_k: f64 },
+    ColdTemperatureOutOfRange {
+        /// The offending cold temperature, K.
+        t_k: f64,
+        /// Lowest temperature of the tungsten resistivity table, K.
+        min_k: f64,
+        /// Highest temperature of the tungsten resistivity table, K.
+        max_k: f64,
+    },
     /// A filament's resistance must rise when lit: R_hot/R_cold must exceed 1.
     #[error("hot/cold resistance ratio {ratio} must exceed 1 (R_hot = V²/P = {hot_resistance_ohm} ohm); check the rating and the measured cold resistance")]
-    ImpossibleRatio { ratio: f64, hot_resistance_ohm: f64 },
+    ImpossibleRatio {
+        /// The hot/cold resistance ratio R_hot/R_cold (dimensionless).
+        ratio: f64,
+        /// The hot resistance V²/P from the rating, ohm.
+        hot_resistance_ohm: f64,
+    },
     /// The ratio implies a temperature beyond the resistivity table.
     #[error("hot/cold resistance ratio {ratio} exceeds {max_ratio}, the most tungsten reaches up to 3500 K from this cold temperature")]
-    BeyondTable { ratio: f64, max_ratio: f64 },
+    BeyondTable {
+        /// The hot/cold resistance ratio R_hot/R_cold (dimensionless).
+        ratio: f64,
+        /// The largest ratio the table allows from this cold temperature,
+        /// ρ(3500 K)/ρ(T_cold) (dimensionless).
+        max_ratio: f64,
+    },
     /// Tungsten property failure.
     #[error(transparent)]
     Tungsten(#[from] TungstenError),

@@ -24,18 +24,36 @@ const CELSIUS_OFFSET_K: f64 = 273.15;
 pub enum PlatinumError {
     /// R0 must be a positive, finite resistance.
     #[error("R0 must be positive and finite, got {r0_ohm} ohm")]
-    InvalidR0 { r0_ohm: f64 },
+    InvalidR0 {
+        /// The offending R0, ohm.
+        r0_ohm: f64,
+    },
     /// A coefficient is NaN or infinite.
     #[error("coefficient {name} must be finite, got {value}")]
-    NotFinite { name: &'static str, value: f64 },
+    NotFinite {
+        /// Which coefficient: "A", "B" or "C".
+        name: &'static str,
+        /// The offending value (A in 1/°C, B in 1/°C², C in 1/°C⁴).
+        value: f64,
+    },
     /// R(T) must rise over the whole −200…850 °C range.
     #[error(
         "R(T) must increase over 73.15–1123.15 K, but dR/dT = {slope_ohm_per_k} ohm/K at {t_k} K"
     )]
-    NotIncreasing { t_k: f64, slope_ohm_per_k: f64 },
+    NotIncreasing {
+        /// Temperature where the slope fails, K.
+        t_k: f64,
+        /// The slope dR/dT there, ohm/K.
+        slope_ohm_per_k: f64,
+    },
     /// R(T) must stay positive over the range.
     #[error("R(T) must be positive over 73.15–1123.15 K, but R = {r_ohm} ohm at {t_k} K")]
-    NonPositive { t_k: f64, r_ohm: f64 },
+    NonPositive {
+        /// Temperature where R(T) fails, K.
+        t_k: f64,
+        /// The resistance there, ohm.
+        r_ohm: f64,
+    },
 }
 
 /// A platinum element described by the Callendar–Van Dusen equation.

@@ -13,36 +13,72 @@ pub const BETA_RANGE_K: (f64, f64) = (218.15, 423.15);
 pub enum ThermistorError {
     /// R0 must be positive and finite.
     #[error("R0 must be positive and finite, got {r0_ohm} ohm")]
-    InvalidR0 { r0_ohm: f64 },
+    InvalidR0 {
+        /// The offending R0, ohm.
+        r0_ohm: f64,
+    },
     /// T0 must be positive and finite.
     #[error("T0 must be positive and finite, got {t0_k} K")]
-    InvalidT0 { t0_k: f64 },
+    InvalidT0 {
+        /// The offending T0, K.
+        t0_k: f64,
+    },
     /// The B constant must be positive and finite (an NTC).
     #[error("beta must be positive and finite, got {beta_k} K")]
-    InvalidBeta { beta_k: f64 },
+    InvalidBeta {
+        /// The offending B constant, K.
+        beta_k: f64,
+    },
     /// A Steinhart–Hart coefficient is NaN or infinite.
     #[error("Steinhart–Hart coefficient {name} must be finite, got {value}")]
-    NotFinite { name: &'static str, value: f64 },
+    NotFinite {
+        /// Which coefficient: "a", "b" or "c".
+        name: &'static str,
+        /// The offending value, 1/K.
+        value: f64,
+    },
     /// Steinhart–Hart b must be positive (every NTC coefficient set has b > 0).
     #[error("Steinhart–Hart coefficient b must be positive, got {b}")]
-    NonPositiveB { b: f64 },
+    NonPositiveB {
+        /// The offending coefficient b, 1/K.
+        b: f64,
+    },
     /// The temperature range must satisfy 0 < min < max, finite.
     #[error("temperature range must satisfy 0 < min < max, got [{t_min_k}, {t_max_k}] K")]
-    InvalidRange { t_min_k: f64, t_max_k: f64 },
+    InvalidRange {
+        /// The stated lower temperature, K.
+        t_min_k: f64,
+        /// The stated upper temperature, K.
+        t_max_k: f64,
+    },
     /// R(T) does not decrease over the whole stated range (possible with c < 0).
     #[error("R(T) must decrease over the stated range, but it does not at {t_k} K (c < 0 turns the curve back)")]
-    NotDecreasing { t_k: f64 },
+    NotDecreasing {
+        /// The range end where R(T) fails to decrease, K.
+        t_k: f64,
+    },
     /// R(T) overflows at an end of the range.
     #[error(
         "R(T) is not finite at {t_k} K: the coefficients do not describe a usable thermistor there"
     )]
-    ResistanceOverflow { t_k: f64 },
+    ResistanceOverflow {
+        /// The temperature where R(T) is not finite, K.
+        t_k: f64,
+    },
     /// A resistance must be positive and finite.
     #[error("resistance must be positive and finite, got {r_ohm} ohm")]
-    InvalidResistance { r_ohm: f64 },
+    InvalidResistance {
+        /// The offending resistance, ohm.
+        r_ohm: f64,
+    },
     /// The law gives no positive temperature for this resistance.
     #[error("no positive temperature for {r_ohm} ohm: 1/T = {inverse_t_per_k} 1/K")]
-    NoTemperature { r_ohm: f64, inverse_t_per_k: f64 },
+    NoTemperature {
+        /// The resistance given, ohm.
+        r_ohm: f64,
+        /// The non-positive 1/T the law gives for it, 1/K.
+        inverse_t_per_k: f64,
+    },
 }
 
 /// Why a three-point Steinhart–Hart fit failed.
@@ -50,24 +86,44 @@ pub enum ThermistorError {
 pub enum FitError {
     /// A point has a non-positive or non-finite temperature or resistance.
     #[error("point {index} must have positive, finite T and R, got T = {t_k} K, R = {r_ohm} ohm")]
-    InvalidPoint { index: usize, t_k: f64, r_ohm: f64 },
+    InvalidPoint {
+        /// Zero-based index of the point.
+        index: usize,
+        /// The point's temperature, K.
+        t_k: f64,
+        /// The point's resistance, ohm.
+        r_ohm: f64,
+    },
     /// Two points share a temperature.
     #[error("two points share the temperature {t_k} K; the three must be distinct")]
-    RepeatedTemperature { t_k: f64 },
+    RepeatedTemperature {
+        /// The shared temperature, K.
+        t_k: f64,
+    },
     /// Two points share a resistance.
     #[error("two points share the resistance {r_ohm} ohm; the three must be distinct")]
-    RepeatedResistance { r_ohm: f64 },
+    RepeatedResistance {
+        /// The shared resistance, ohm.
+        r_ohm: f64,
+    },
     /// Resistance must fall as temperature rises.
     #[error("an NTC's resistance must fall as T rises, but R = {r_low_ohm} ohm at {t_low_k} K and {r_high_ohm} ohm at {t_high_k} K")]
     NotDecreasing {
+        /// The lower temperature of the offending pair, K.
         t_low_k: f64,
+        /// The resistance at the lower temperature, ohm.
         r_low_ohm: f64,
+        /// The higher temperature of the offending pair, K.
         t_high_k: f64,
+        /// The resistance at the higher temperature, ohm.
         r_high_ohm: f64,
     },
     /// ln R1 + ln R2 + ln R3 = 0 makes the 3×3 system singular.
     #[error("the points are singular for the fit: ln R1 + ln R2 + ln R3 = {sum_ln_r} (product of resistances ≈ 1 ohm³)")]
-    Singular { sum_ln_r: f64 },
+    Singular {
+        /// ln R1 + ln R2 + ln R3, with R in ohm.
+        sum_ln_r: f64,
+    },
     /// The fitted coefficients fail the law's own checks.
     #[error("fitted law is invalid: {0}")]
     Law(#[from] ThermistorError),

@@ -84,17 +84,30 @@ static EMISSIVITY: LazyLock<MonotoneTable> = LazyLock::new(|| {
 pub enum TungstenError {
     /// Temperature outside 273.15–3500 K.
     #[error("temperature {t_k} K is outside the tungsten resistivity range [{min_k}, {max_k}] K")]
-    OutOfRange { t_k: f64, min_k: f64, max_k: f64 },
+    OutOfRange {
+        /// The offending temperature, K.
+        t_k: f64,
+        /// Lowest temperature of the table, K.
+        min_k: f64,
+        /// Highest temperature of the table, K.
+        max_k: f64,
+    },
     /// Resistivity outside what the table spans.
     #[error("resistivity {rho_ohm_m} ohm·m is outside the table's span [{min_ohm_m}, {max_ohm_m}] ohm·m")]
     ResistivityOutOfRange {
+        /// The offending resistivity, ohm·m.
         rho_ohm_m: f64,
+        /// Lowest resistivity of the table, ohm·m.
         min_ohm_m: f64,
+        /// Highest resistivity of the table, ohm·m.
         max_ohm_m: f64,
     },
     /// The reference resistance must be positive and finite.
     #[error("reference resistance must be positive and finite, got {r_ohm} ohm")]
-    InvalidResistance { r_ohm: f64 },
+    InvalidResistance {
+        /// The offending reference resistance, ohm.
+        r_ohm: f64,
+    },
     /// Interpolation failure (not expected for in-range input).
     #[error(transparent)]
     Table(#[from] TableError),
