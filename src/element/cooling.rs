@@ -85,6 +85,7 @@ impl KingsLaw {
         self.n
     }
     /// G(U) = A + B·Uⁿ, U in m/s (negative U taken as |U|).
+    #[inline]
     pub fn conductance_w_per_k(&self, airflow_m_per_s: f64) -> f64 {
         self.a_w_per_k + self.b_w_per_k * airflow_m_per_s.abs().powf(self.n)
     }
@@ -329,6 +330,7 @@ fn central_difference(f: impl Fn(f64) -> f64, x: f64, scale: f64, floor: f64) ->
 
 impl CoolingLaw {
     /// Heat lost (W) at element temperature `t_k` and airflow `u` (m/s).
+    #[inline]
     pub fn heat_loss_w(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
         match self {
             CoolingLaw::King(k) => k.conductance_w_per_k(airflow_m_per_s) * (t_k - env.ambient_k),
@@ -341,6 +343,7 @@ impl CoolingLaw {
 
     /// ∂P_loss/∂T (W/K): analytic for King and the data-sheet form; for
     /// geometry a central difference with step `FD_REL_STEP·T`.
+    #[inline]
     pub fn d_heat_loss_dt(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
         match self {
             CoolingLaw::King(k) => k.conductance_w_per_k(airflow_m_per_s),
@@ -448,6 +451,7 @@ impl CoolingLaw {
 
     /// Conductance G(U) = P_loss(T, U)/(T − T_amb), W/K, at a fixed element
     /// temperature (radiation and support conduction included).
+    #[inline]
     pub fn conductance_w_per_k(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
         let dt = t_k - env.ambient_k;
         self.heat_loss_w(t_k, airflow_m_per_s, env) / dt

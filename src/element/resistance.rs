@@ -225,6 +225,7 @@ pub enum ResistanceLaw {
 
 impl ResistanceLaw {
     /// Resistance at absolute temperature `t_k`, in ohm.
+    #[inline]
     pub fn resistance_ohm(&self, t_k: f64) -> f64 {
         match self {
             ResistanceLaw::Linear(l) => l.r0_ohm * (1.0 + l.alpha_per_k * (t_k - l.t0_k)),
@@ -237,6 +238,7 @@ impl ResistanceLaw {
     }
 
     /// dR/dT at `t_k`, in ohm/K (analytic for every law).
+    #[inline]
     pub fn derivative_ohm_per_k(&self, t_k: f64) -> f64 {
         match self {
             ResistanceLaw::Linear(l) => l.r0_ohm * l.alpha_per_k,
@@ -251,6 +253,7 @@ impl ResistanceLaw {
     /// Temperature range (K) over which the law is valid and gives a
     /// positive resistance: the solver never looks beyond it, so an
     /// operating point outside is reported as runaway, not extrapolated.
+    #[inline]
     pub fn valid_range_k(&self) -> (f64, f64) {
         match self {
             ResistanceLaw::Linear(l) => {
