@@ -304,13 +304,61 @@ fn req<'v>(
 
 /// Reject keys that the chosen law does not use, so a misplaced key is an
 /// error rather than silently ignored.
-fn unused(rd: &Reader<'_>, keys: &[(&str, bool)], law: &str, p: &str, near: &raw::Word) -> R<()> {
-    if let Some((k, _)) = keys.iter().find(|(_, present)| *present) {
-        return Err(rd.err(
-            Some(near.span()),
-            &format!("{p}.{k}"),
-            format!("`{k}` is not used by law \"{law}\"; remove it or choose another law"),
-        ));
+/// A key of a law table and where it stands in the file (`None`: absent).
+type Key = (&'static str, Option<std::ops::Range<usize>>);
+
+fn at<T>(v: &Option<toml::Spanned<T>>) -> Option<std::ops::Range<usize>> {
+    v.as_ref().map(|v| v.span())
+}
+
+/// Every optional key of `[element.resistance]`.
+fn resistance_keys(r: &raw::RawResistance) -> [Key; 10] {
+    [
+        ("r0", at(&r.r0)),
+        ("t0", at(&r.t0)),
+        ("tcr", at(&r.tcr)),
+        ("beta", at(&r.beta)),
+        ("a", at(&r.a)),
+        ("b", at(&r.b)),
+        ("c", at(&r.c)),
+        ("points", at(&r.points)),
+        ("t_min", at(&r.t_min)),
+        ("t_max", at(&r.t_max)),
+    ]
+}
+
+/// Every optional key of `[element.cooling]`.
+fn cooling_keys(c: &raw::RawCooling) -> [Key; 15] {
+    [
+        ("a", at(&c.a)),
+        ("b", at(&c.b)),
+        ("n", at(&c.n)),
+        ("dissipation", at(&c.dissipation)),
+        ("dissipation_moving", at(&c.dissipation_moving)),
+        ("moving_airflow", at(&c.moving_airflow)),
+        ("time_constant", at(&c.time_constant)),
+        ("diameter", at(&c.diameter)),
+        ("length", at(&c.length)),
+        ("wire_diameter", at(&c.wire_diameter)),
+        ("wire_length", at(&c.wire_length)),
+        ("forced", at(&c.forced)),
+        ("natural", at(&c.natural)),
+        ("emissivity", at(&c.emissivity)),
+        ("supports", at(&c.supports)),
+    ]
+}
+
+/// Reject the first key present in `keys` that `law` does not take,
+/// pointing at it.
+fn only(rd: &Reader<'_>, keys: &[Key], takes: &[&str], law: &str, p: &str) -> R<()> {
+    for (k, span) in keys {
+        if let (Some(span), false) = (span, takes.contains(k)) {
+            return Err(rd.err(
+                Some(span.clone()),
+                &format!("{p}.{k}"),
+                format!("`{k}` is not used by law \"{law}\"; remove it or choose another law"),
+            ));
+        }
     }
     Ok(())
 }
@@ -325,26 +373,13 @@ fn resistance(
     let f = |k: &str| format!("{pre}.{k}");
     let law = rd.word(&r.law, &f("law"), &RESISTANCE_LAWS)?;
     let near = &r.law;
+    let keys = resistance_keys(r);
     let phys = |rd: &Reader<'_>, msg: String| rd.err(Some(near.span()), &pre, msg);
     let temp = |rd: &Reader<'_>, v: &Value, k: &str| rd.quantity(v, &f(k), Dimension::Temperature);
     let ohm = |rd: &Reader<'_>, v: &Value, k: &str| rd.positive(v, &f(k), Dimension::Resistance);
     match law {
         "linear" => {
-            unused(
-                rd,
-                &[
-                    ("beta", r.beta.is_some()),
-                    ("a", r.a.is_some()),
-                    ("b", r.b.is_some()),
-                    ("c", r.c.is_some()),
-                    ("points", r.points.is_some()),
-                    ("t_min", r.t_min.is_some()),
-                    ("t_max", r.t_max.is_some()),
-                ],
-                law,
-                &pre,
-                near,
-            )?;
+            only(rd, &keys, &["r0", "t0", "tcr"], law, &pre)?;
             let r0 = ohm(
                 rd,
                 req(rd, &r.r0, &f("r0"), near, "R0, e.g. r0 = \"10 ohm\"")?,
@@ -393,22 +428,7 @@ fn resistance(
             }
         }
         "platinum" | "tungsten" => {
-            unused(
-                rd,
-                &[
-                    ("tcr", r.tcr.is_some()),
-                    ("beta", r.beta.is_some()),
-                    ("a", r.a.is_some()),
-                    ("b", r.b.is_some()),
-                    ("c", r.c.is_some()),
-                    ("points", r.points.is_some()),
-                    ("t_min", r.t_min.is_some()),
-                    ("t_max", r.t_max.is_some()),
-                ],
-                law,
-                &pre,
-                near,
-            )?;
+            only(rd, &keys, &["r0", "t0"], law, &pre)?;
             let r0 = ohm(
                 rd,
                 req(
@@ -467,21 +487,7 @@ fn resistance(
             }
         }
         "beta" => {
-            unused(
-                rd,
-                &[
-                    ("tcr", r.tcr.is_some()),
-                    ("a", r.a.is_some()),
-                    ("b", r.b.is_some()),
-                    ("c", r.c.is_some()),
-                    ("points", r.points.is_some()),
-                    ("t_min", r.t_min.is_some()),
-                    ("t_max", r.t_max.is_some()),
-                ],
-                law,
-                &pre,
-                near,
-            )?;
+            only(rd, &keys, &["r0", "t0", "beta"], law, &pre)?;
             let r0 = ohm(
                 rd,
                 req(rd, &r.r0, &f("r0"), near, "R0, e.g. r0 = \"10 kohm\"")?,
@@ -512,17 +518,12 @@ fn resistance(
                 .map_err(|er| phys(rd, er.to_string()))
         }
         "steinhart-hart" => {
-            unused(
+            only(
                 rd,
-                &[
-                    ("r0", r.r0.is_some()),
-                    ("t0", r.t0.is_some()),
-                    ("tcr", r.tcr.is_some()),
-                    ("beta", r.beta.is_some()),
-                ],
+                &keys,
+                &["a", "b", "c", "points", "t_min", "t_max"],
                 law,
                 &pre,
-                near,
             )?;
             let t_min = match &r.t_min {
                 Some(v) => temp(rd, v, "t_min")?,
@@ -574,23 +575,7 @@ fn resistance(
                 .map_err(|er| phys(rd, er.to_string()))
         }
         _ => {
-            unused(
-                rd,
-                &[
-                    ("r0", r.r0.is_some()),
-                    ("t0", r.t0.is_some()),
-                    ("tcr", r.tcr.is_some()),
-                    ("beta", r.beta.is_some()),
-                    ("a", r.a.is_some()),
-                    ("b", r.b.is_some()),
-                    ("c", r.c.is_some()),
-                    ("t_min", r.t_min.is_some()),
-                    ("t_max", r.t_max.is_some()),
-                ],
-                law,
-                &pre,
-                near,
-            )?;
+            only(rd, &keys, &["points"], law, &pre)?;
             let Some(pts) = &r.points else {
                 return Err(rd.err(
                     Some(near.span()),
@@ -636,27 +621,11 @@ fn cooling(
     let f = |k: &str| format!("{pre}.{k}");
     let law = rd.word(&c.law, &f("law"), &COOLING_LAWS)?;
     let near = &c.law;
-    let geometry_keys = [
-        ("diameter", c.diameter.is_some()),
-        ("length", c.length.is_some()),
-        ("wire_diameter", c.wire_diameter.is_some()),
-        ("wire_length", c.wire_length.is_some()),
-        ("forced", c.forced.is_some()),
-        ("natural", c.natural.is_some()),
-        ("emissivity", c.emissivity.is_some()),
-        ("supports", c.supports.is_some()),
-    ];
-    let datasheet_keys = [
-        ("dissipation", c.dissipation.is_some()),
-        ("dissipation_moving", c.dissipation_moving.is_some()),
-        ("moving_airflow", c.moving_airflow.is_some()),
-        ("time_constant", c.time_constant.is_some()),
-    ];
+    let keys = cooling_keys(c);
     let g = Dimension::ThermalConductance;
     match law {
         "king" => {
-            unused(rd, &geometry_keys, law, &pre, near)?;
-            unused(rd, &datasheet_keys, law, &pre, near)?;
+            only(rd, &keys, &["a", "b", "n"], law, &pre)?;
             let a = rd.non_negative(
                 req(
                     rd,
@@ -686,13 +655,18 @@ fn cooling(
             Ok((CoolingLaw::King(k), None))
         }
         "datasheet" => {
-            unused(rd, &geometry_keys, law, &pre, near)?;
-            unused(
+            only(
                 rd,
-                &[("a", c.a.is_some()), ("b", c.b.is_some())],
+                &keys,
+                &[
+                    "n",
+                    "dissipation",
+                    "dissipation_moving",
+                    "moving_airflow",
+                    "time_constant",
+                ],
                 law,
                 &pre,
-                near,
             )?;
             let d0 = rd.positive(
                 req(
@@ -747,29 +721,19 @@ fn cooling(
             Ok((CoolingLaw::Datasheet(law), derived))
         }
         _ => {
-            unused(rd, &datasheet_keys, law, &pre, near)?;
-            unused(
-                rd,
-                &[
-                    ("a", c.a.is_some()),
-                    ("b", c.b.is_some()),
-                    ("n", c.n.is_some()),
-                ],
-                law,
-                &pre,
-                near,
-            )?;
+            let mut takes = vec![
+                "diameter",
+                "length",
+                "forced",
+                "natural",
+                "emissivity",
+                "supports",
+            ];
+            if law == "coil" {
+                takes.extend(["wire_diameter", "wire_length"]);
+            }
+            only(rd, &keys, &takes, law, &pre)?;
             let shape = if law == "wire" {
-                unused(
-                    rd,
-                    &[
-                        ("wire_diameter", c.wire_diameter.is_some()),
-                        ("wire_length", c.wire_length.is_some()),
-                    ],
-                    law,
-                    &pre,
-                    near,
-                )?;
                 Shape::StraightWire
             } else {
                 Shape::CoilEnvelope
