@@ -461,12 +461,20 @@ fn a_key_the_law_does_not_take_is_rejected_where_it_stands() {
     // King's law takes a, b, n; a wire diameter there is a mistake.
     let text = greenhouse().replace("n = 0.45", "n = 0.45\ndiameter = \"25 um\"");
     let path = write_design("unused-law-key", &text);
-    let line = text.lines().position(|l| l.starts_with("diameter =")).unwrap() + 1;
+    let line = text
+        .lines()
+        .position(|l| l.starts_with("diameter ="))
+        .unwrap()
+        + 1;
     draftwire()
         .arg("size")
         .arg(&path)
         .assert()
         .code(2)
-        .stderr(predicate::str::contains(format!("design.toml:{line}:12: element.cooling.diameter")))
-        .stderr(predicate::str::contains("`diameter` is not used by law \"king\""));
+        .stderr(predicate::str::contains(format!(
+            "design.toml:{line}:12: element.cooling.diameter"
+        )))
+        .stderr(predicate::str::contains(
+            "`diameter` is not used by law \"king\"",
+        ));
 }

@@ -2,16 +2,15 @@
 //! drive, the operating points, the reference divider and trimmer, the
 //! hysteresis network — and the trip point they give.
 
-use crate::circuit::divider::{Divider, DividerError, STANDARD_TRIMMER_OHM};
+use crate::circuit::divider::{Divider, DividerError};
 use crate::circuit::frontend::{Arrangement, FrontEnd, OutputState};
 use crate::circuit::hysteresis::MIN_FEEDBACK_TO_PULLUP_RATIO;
 use crate::design::model::{
-    Design, DriveSpec, HysteresisSpec, Load, OverheatTarget, Rail, Sizable, StageKind,
-    TripDirection,
+    Design, DriveSpec, HysteresisSpec, OverheatTarget, Rail, Sizable, StageKind, TripDirection,
 };
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
-use crate::eseries::{format_rkm, ESeries};
+use crate::eseries::format_rkm;
 use crate::roots::{brent, brent_fallible};
 use crate::solve::{
     airflow_for_sense, operating_point, sensitivity_v_per_m_per_s, OperatingPoint, SolveError,
@@ -241,27 +240,13 @@ pub fn round_sig(x: f64, digits: usize) -> f64 {
         .unwrap_or(x)
 }
 
-/// The output stage actually used: `auto` picks the comparator output
-/// directly when the load current is within the sink limit, otherwise an
-/// NPN low-side switch.
+/// The output stage used (`auto` was resolved while reading the file); a
+/// design without an `[output]` leaves the comparator output on its own.
 pub fn resolve_stage(design: &Design) -> StageKind {
-    let Some(out) = &design.output else {
-        return StageKind::Direct;
-    };
-    if out.stage != StageKind::Auto {
-        return out.stage;
-    }
-    let rail_v = design.supply.rail_v(out.rail);
-    let load_a = match out.load {
-        Load::Led { current_a, .. } => current_a,
-        Load::Buzzer { current_a } => current_a,
-        Load::Relay { coil_ohm, .. } => rail_v / coil_ohm,
-    };
-    if load_a <= design.comparator.sink_max_a && !matches!(out.load, Load::Relay { .. }) {
-        StageKind::Direct
-    } else {
-        StageKind::NpnLowSide
-    }
+    design
+        .output
+        .as_ref()
+        .map_or(StageKind::Direct, |o| o.stage)
 }
 
 /// Output state that makes the load active: the comparator sinks (low) for
@@ -620,14 +605,4 @@ fn size_feedback(
     brent_fallible(|l| band(l).map(|b| b - target), lo, hi)?
         .map(|r| r.x.exp())
         .map_err(|e| SizeError::Hysteresis(e.to_string()))
-}
-
-/// Trimmer values available (for the docs and the report).
-pub fn trimmer_values() -> &'static [f64] {
-    STANDARD_TRIMMER_OHM
-}
-
-/// Nearest value helper for other modules.
-pub fn snap(series: ESeries, x: f64) -> f64 {
-    series.nearest(x)
 }

@@ -683,17 +683,18 @@ fn build_output(
     comparator: &ComparatorSpec,
     supply: &Supply,
 ) -> R<OutputSpec> {
+    // `None` stands for "auto", resolved below once the load is known.
     let stage = match &o.stage {
-        None => StageKind::Auto,
+        None => None,
         Some(w) => match rd.word(
             w,
             "output.stage",
             &["auto", "direct", "npn-low-side", "pnp-high-side"],
         )? {
-            "auto" => StageKind::Auto,
-            "direct" => StageKind::Direct,
-            "npn-low-side" => StageKind::NpnLowSide,
-            _ => StageKind::PnpHighSide,
+            "auto" => None,
+            "direct" => Some(StageKind::Direct),
+            "npn-low-side" => Some(StageKind::NpnLowSide),
+            _ => Some(StageKind::PnpHighSide),
         },
     };
     let near = Some(o.load.span());
@@ -831,7 +832,9 @@ fn build_output(
     // `auto` picks the simplest stage within ratings: the comparator output
     // directly when an LED or buzzer current is within its sink limit,
     // otherwise an NPN low-side switch (a relay coil always gets a switch).
-    let stage = if stage == StageKind::Auto {
+    let stage = if let Some(stage) = stage {
+        stage
+    } else {
         let rail_v = supply.rail_v(rail);
         let (load_a, what) = match load {
             Load::Led { current_a, .. } => (current_a, "LED"),
@@ -850,8 +853,6 @@ fn build_output(
         } else {
             StageKind::NpnLowSide
         }
-    } else {
-        stage
     };
     if stage == StageKind::Direct {
         if let Some(v) = &o.forced_gain {

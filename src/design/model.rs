@@ -212,11 +212,10 @@ pub struct ComparatorSpec {
     pub pullup_ohm: Sizable,
 }
 
-/// The output stage kind.
+/// The output stage kind, as resolved while reading the file (`"auto"`
+/// has already been turned into one of these).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum StageKind {
-    /// Let draftwire pick the simplest that is within ratings.
-    Auto,
     /// The comparator output drives the load directly.
     Direct,
     /// NPN low-side switch.

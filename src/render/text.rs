@@ -65,6 +65,13 @@ impl Table {
     }
 }
 
+/// Labelled values, one a line, labels padded to a common column.
+fn key_values(out: &mut String, lines: &[(&str, String)]) {
+    for (k, v) in lines {
+        let _ = writeln!(out, "  {k:<30} {v}");
+    }
+}
+
 /// Width to which running text is wrapped.
 const WRAP_WIDTH: usize = 100;
 
@@ -181,71 +188,51 @@ pub fn render(r: &Report, file: &str) -> String {
         &mut out,
         &format!("Trip point (trips on {} airflow)", tr.direction),
     );
-    let kv = |out: &mut String, k: &str, v: String| {
-        let _ = writeln!(out, "  {k:<30} {v}");
-    };
-    kv(
-        &mut out,
-        "target",
-        format!("{:.3} m/s", tr.target_airflow_m_per_s),
-    );
-    kv(
-        &mut out,
-        "trips at",
-        format!("{:.3} m/s", tr.airflow_m_per_s),
-    );
-    kv(
-        &mut out,
-        "releases at",
-        format!("{:.3} m/s", tr.release_airflow_m_per_s),
-    );
-    kv(
-        &mut out,
-        "sense voltage at trip",
-        format!("{:.4} V", tr.sense_voltage_v),
-    );
-    kv(
-        &mut out,
-        "reference voltage (wiper)",
-        format!("{:.4} V", tr.reference_voltage_v),
-    );
-    kv(
-        &mut out,
-        "sensitivity dV/dU",
-        format!("{:.2} mV per m/s", tr.sensitivity_v_per_m_per_s * 1000.0),
-    );
-    kv(
-        &mut out,
-        "trimmer setting",
-        format!(
-            "{:.1} % of travel from the grounded end",
-            tr.trimmer_position_percent
+    let trip_lines = [
+        ("target", format!("{:.3} m/s", tr.target_airflow_m_per_s)),
+        ("trips at", format!("{:.3} m/s", tr.airflow_m_per_s)),
+        (
+            "releases at",
+            format!("{:.3} m/s", tr.release_airflow_m_per_s),
         ),
-    );
-    kv(
-        &mut out,
-        "trimmer range",
-        format!(
-            "grounded end: {}; top end: {}",
-            tr.trimmer_bottom_state, tr.trimmer_top_state
+        (
+            "sense voltage at trip",
+            format!("{:.4} V", tr.sense_voltage_v),
         ),
-    );
-    kv(
-        &mut out,
-        "1 % of travel moves it",
-        format!("{:.4} m/s", tr.airflow_per_percent_travel_m_per_s),
-    );
-    kv(
-        &mut out,
-        "comparator offset adds",
-        format!("± {:.4} m/s", tr.offset_uncertainty_m_per_s),
-    );
-    kv(
-        &mut out,
-        "non-inverting input (+)",
-        tr.non_inverting_input.clone(),
-    );
-    kv(&mut out, "inverting input (−)", tr.inverting_input.clone());
+        (
+            "reference voltage (wiper)",
+            format!("{:.4} V", tr.reference_voltage_v),
+        ),
+        (
+            "sensitivity dV/dU",
+            format!("{:.2} mV per m/s", tr.sensitivity_v_per_m_per_s * 1000.0),
+        ),
+        (
+            "trimmer setting",
+            format!(
+                "{:.1} % of travel from the grounded end",
+                tr.trimmer_position_percent
+            ),
+        ),
+        (
+            "trimmer range",
+            format!(
+                "grounded end: {}; top end: {}",
+                tr.trimmer_bottom_state, tr.trimmer_top_state
+            ),
+        ),
+        (
+            "1 % of travel moves it",
+            format!("{:.4} m/s", tr.airflow_per_percent_travel_m_per_s),
+        ),
+        (
+            "comparator offset adds",
+            format!("± {:.4} m/s", tr.offset_uncertainty_m_per_s),
+        ),
+        ("non-inverting input (+)", tr.non_inverting_input.clone()),
+        ("inverting input (−)", tr.inverting_input.clone()),
+    ];
+    key_values(&mut out, &trip_lines);
     out.push_str(&wrap(&tr.hysteresis_note, "  ", "  ", WRAP_WIDTH));
 
     heading(&mut out, "Bill of values");
@@ -309,24 +296,18 @@ pub fn render(r: &Report, file: &str) -> String {
 
     if r.supply.idle_a > 0.0 {
         heading(&mut out, "Supply");
-        kv(&mut out, "input current, idle", eng(r.supply.idle_a, "A"));
-        kv(
-            &mut out,
-            "input current, tripped",
-            eng(r.supply.tripped_a, "A"),
-        );
+        let mut lines = vec![
+            ("input current, idle", eng(r.supply.idle_a, "A")),
+            ("input current, tripped", eng(r.supply.tripped_a, "A")),
+        ];
         if let Some(tj) = r.supply.regulator_junction_c {
-            kv(
-                &mut out,
+            lines.push((
                 "regulator dissipation (worst)",
                 eng(r.supply.regulator_dissipation_w, "W"),
-            );
-            kv(
-                &mut out,
-                "regulator junction (worst)",
-                format!("{tj:.1} °C"),
-            );
+            ));
+            lines.push(("regulator junction (worst)", format!("{tj:.1} °C")));
         }
+        key_values(&mut out, &lines);
     }
 
     heading(&mut out, "Checks");
