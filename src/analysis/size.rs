@@ -4,7 +4,7 @@
 
 use crate::circuit::divider::{Divider, DividerError};
 use crate::circuit::frontend::{Arrangement, FrontEnd, OutputState};
-use crate::circuit::hysteresis::MIN_FEEDBACK_TO_PULLUP_RATIO;
+use crate::circuit::hysteresis::{DEFAULT_SERIES_INPUT_OHM, MIN_FEEDBACK_TO_PULLUP_RATIO};
 use crate::design::model::{
     Design, DriveSpec, HysteresisSpec, OverheatTarget, Rail, Sizable, StageKind, TripDirection,
 };
@@ -424,12 +424,13 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         Arrangement::SenseOnNonInverting => match det.input_resistor_ohm {
             Sizable::Fixed(r) => r,
             Sizable::Auto => {
-                // Keep the bias-current error I_b·R_in below half the input
-                // offset (draftwire's own rule, no source), within 1 kΩ …
-                // 100 kΩ (common practice for comparator input resistors,
-                // no source).
-                let r = (0.5 * design.comparator.offset_v / design.comparator.bias_a.max(1e-12))
-                    .clamp(1e3, 100e3);
+                // The same rule as circuit::hysteresis::series_input_for_feedback:
+                // aim for DEFAULT_SERIES_INPUT_OHM (10 kΩ, common practice),
+                // lowered so the bias-current error I_b·R_in stays below half
+                // the input offset (draftwire's own budget, no source), and
+                // not below 1 kΩ.
+                let budget = 0.5 * design.comparator.offset_v / design.comparator.bias_a.max(1e-12);
+                let r = budget.min(DEFAULT_SERIES_INPUT_OHM).max(1e3);
                 design.e_series.at_or_below(r)
             }
         },
