@@ -32,19 +32,21 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
             return ExitCode::from(EXIT_INPUT);
         }
     };
-    let mut list = Vec::new();
-    let mut sources = vec![(file, source)];
+    // The design's own element is the first candidate, as already read.
+    let own_label = design
+        .element_name
+        .clone()
+        .unwrap_or_else(|| design.title.clone());
+    let mut list = vec![(own_label, design.element.clone(), design.element_tolerance)];
     for path in candidate_files {
-        match read(path) {
-            Ok(s) => sources.push((path.display().to_string(), s)),
+        let text = match read(path) {
+            Ok(s) => s,
             Err(e) => {
                 eprintln!("{e}");
                 return ExitCode::from(EXIT_INPUT);
             }
-        }
-    }
-    for (name, text) in &sources {
-        match parse_candidates(name, text) {
+        };
+        match parse_candidates(&path.display().to_string(), &text) {
             Ok(cs) => list.extend(cs.into_iter().map(|c| (c.label, c.element, c.tolerance))),
             Err(d) => {
                 eprintln!("error: {d}");

@@ -520,6 +520,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
 
     Ok(Design {
         title,
+        element_name: raw.element.name.as_ref().map(|n| n.get_ref().clone()),
         e_series,
         ambient,
         supply,

@@ -94,11 +94,9 @@ pub fn parse_candidates(file: &str, source: &str) -> Result<Vec<Candidate>, Box<
     let table: toml::Table = toml::from_str(source).map_err(toml_err)?;
     if !table.contains_key("candidate") {
         let design = super::parse_design(file, source)?;
-        let raw: raw::RawDesign = toml::from_str(source).map_err(toml_err)?;
-        let label = raw
-            .element
-            .name
-            .map(|n| n.into_inner())
+        let label = design
+            .element_name
+            .clone()
             .unwrap_or_else(|| design.title.clone());
         return Ok(vec![Candidate {
             label,

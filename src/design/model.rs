@@ -309,6 +309,8 @@ pub struct RatingsSpec {
 pub struct Design {
     /// Title.
     pub title: String,
+    /// The element's free-text name, when the file gives one.
+    pub element_name: Option<String>,
     /// E-series for sized resistors.
     pub e_series: ESeries,
     /// Ambient.
