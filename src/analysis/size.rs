@@ -430,7 +430,7 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
                 // the input offset (draftwire's own budget, no source), and
                 // not below 1 kΩ.
                 let budget = 0.5 * design.comparator.offset_v / design.comparator.bias_a.max(1e-12);
-                let r = budget.min(DEFAULT_SERIES_INPUT_OHM).max(1e3);
+                let r = budget.clamp(1e3, DEFAULT_SERIES_INPUT_OHM);
                 design.e_series.at_or_below(r)
             }
         },
