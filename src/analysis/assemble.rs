@@ -248,7 +248,7 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     if needs_pullup {
         v.push(resistor(
             "RP1",
-            core.pullup_ohm,
+            core.output.pullup_ohm,
             None,
             &src(matches!(design.comparator.pullup_ohm, Fixed(_))),
             "comparator output pull-up".into(),

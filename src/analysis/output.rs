@@ -25,8 +25,9 @@ use crate::quantity::format_engineering;
 use crate::report::{Check, SupplyBudget, ValueRow};
 use crate::solve::operating_point;
 
-/// What the comparator's output node looks like to the feedback network.
-#[derive(Debug, Clone, Copy, PartialEq)]
+/// What the comparator's output node looks like to the feedback network,
+/// with the output stage planned once for both the node and the report.
+#[derive(Debug, Clone, Copy)]
 pub struct OutputNode {
     /// Pull-up resistor from the comparator rail to the output, ohm.
     pub pullup_ohm: f64,
@@ -35,6 +36,8 @@ pub struct OutputNode {
     /// Thevenin source of the output node when the output is high (V, ohm),
     /// including whatever the output stage loads it with.
     pub high_source: (f64, f64),
+    /// The planned stage, reused by [`circuit_section`].
+    plan: Plan,
 }
 
 /// Decoupling capacitance used when the file leaves it `auto`: 100 nF
@@ -58,8 +61,8 @@ fn thevenin2(v1: f64, r1: f64, v2: f64, r2: f64) -> (f64, f64) {
     (millman(v1, r1, v2, r2), r1 * r2 / (r1 + r2))
 }
 
-/// The output stage with its chosen values (private working set, computed
-/// once for the node and once for the report — it is deterministic).
+/// The output stage with its chosen values (private working set, planned
+/// once by [`output_node`] and kept in the sized core).
 #[derive(Debug, Clone, Copy)]
 struct Plan {
     /// Comparator rail: nominal, lowest, highest, V.
@@ -272,6 +275,7 @@ pub fn output_node(design: &Design, stage: StageKind) -> OutputNode {
         pullup_ohm: p.pullup_ohm,
         pullup_exact: p.pullup_exact,
         high_source: p.high_source,
+        plan: p,
     }
 }
 
@@ -326,14 +330,14 @@ pub fn circuit_section(
 ) -> CircuitSection {
     let mut s = CircuitSection::default();
     let stage = core.stage;
-    let plan = plan(design, stage);
+    let plan = core.output.plan;
     let t = transistor(design);
     let cmp = comparator_params(design);
     let es = design.e_series.name();
     let ambient_max = design.ambient.max_k;
     let out = design.output.as_ref();
     let pullup_fitted = core.front.feedback_ohm.is_some() || stage != StageKind::Direct;
-    let rp = core.pullup_ohm;
+    let rp = core.output.pullup_ohm;
     let (_, vcc_lo, vcc_hi) = plan.vcc;
     let (vl, vl_lo, vl_hi) = plan.vload;
     let vol = design.comparator.output_low_v;
@@ -1079,7 +1083,7 @@ fn rail_currents(
     let vcc = v_of(cr);
     let vol = design.comparator.output_low_v;
     let vbe = transistor(design).vbe_on_v;
-    let rp = core.pullup_ohm;
+    let rp = core.output.pullup_ohm;
     if state == OutputState::Low && pullup_fitted {
         add(cr, (vcc - vol).max(0.0) / rp);
     }

@@ -107,10 +107,9 @@ pub struct SizedCore {
     pub divider_exact: Option<(f64, f64, f64)>,
     /// Exact feedback value before snapping.
     pub feedback_exact: Option<f64>,
-    /// Comparator output pull-up, ohm.
-    pub pullup_ohm: f64,
-    /// Exact pull-up before snapping, when sized.
-    pub pullup_exact: Option<f64>,
+    /// The comparator output node and the planned output stage (pull-up,
+    /// its exact value, the output-high source).
+    pub output: super::output::OutputNode,
     /// Trimmer setting that puts the trip point on target (0 … 1, may lie
     /// outside when the trimmer cannot reach).
     pub trimmer_x: f64,
@@ -411,7 +410,6 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
     };
 
     let node = super::output::output_node(design, stage);
-    let pullup_ohm = node.pullup_ohm;
     let mut notes = Vec::new();
     let sense_src = drive.sense_source_ohm(at_trip.resistance_ohm);
     // A series input resistor is only fitted where feedback acts on the
@@ -499,8 +497,7 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         front,
         divider_exact,
         feedback_exact,
-        pullup_ohm,
-        pullup_exact: node.pullup_exact,
+        output: node,
         trimmer_x: x,
         idle_state,
         stage,
