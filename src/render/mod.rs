@@ -1,6 +1,7 @@
 //! Renderers: pure functions from a report to text. Each format keeps a
 //! fixed field order.
 
+pub mod compare;
 pub mod csv;
 pub mod json;
 pub mod text;
