@@ -115,10 +115,6 @@ impl RootSet {
     pub fn iter(&self) -> impl Iterator<Item = (f64, bool)> + '_ {
         (0..self.count).map(|i| (self.temperatures_k[i], self.stable[i]))
     }
-    /// Whether the balance has more than one stable root (bistable).
-    pub fn is_bistable(&self) -> bool {
-        self.iter().filter(|r| r.1).count() > 1
-    }
 }
 
 /// A solved steady operating point.
