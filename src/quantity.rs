@@ -687,6 +687,33 @@ pub fn parse_quantity(text: &str, expected: Dimension) -> Result<f64, QuantityEr
     }
 }
 
+/// A plain number rounded to `significant_digits` without trailing zeros
+/// and without float noise: `(0.21000000000000002, 3)` → "0.21",
+/// `(6.393, 2)` → "6.4". Not finite values are written "undefined", "∞".
+pub fn format_sig(value: f64, significant_digits: usize) -> String {
+    if value.is_nan() {
+        return "undefined".into();
+    }
+    if value.is_infinite() {
+        return if value > 0.0 {
+            "∞".into()
+        } else {
+            "-∞".into()
+        };
+    }
+    let digits = significant_digits.clamp(1, 17);
+    let rounded: f64 = format!("{:.*e}", digits - 1, value)
+        .parse()
+        .unwrap_or(value);
+    // Shortest text that reads back as the rounded value.
+    let text = format!("{rounded}");
+    if text == "-0" {
+        "0".into()
+    } else {
+        text
+    }
+}
+
 /// Write `value_si` with an SI prefix (p n µ m k M G; SI Brochure, 9th ed.,
 /// 2019) in front of `unit_symbol`, rounded to `significant_digits`
 /// (clamped to 1..=17): `(0.0352, "A", 3)` → "35.2 mA",

@@ -29,16 +29,24 @@ pub struct OperatingPointRow {
 }
 
 /// The trip point.
-#[derive(Debug, Clone, PartialEq, Serialize)]
+#[derive(Debug, Clone, PartialEq, Serialize, Default)]
 pub struct TripSummary {
     /// Trip direction: "rising" or "falling".
     pub direction: String,
     /// Target trip airflow, m/s.
     pub target_airflow_m_per_s: f64,
-    /// Trip airflow with the reported values and trimmer setting, m/s.
-    pub airflow_m_per_s: f64,
+    /// The band the trip airflow must stay inside at every condition, m/s.
+    pub band_m_per_s: [f64; 2],
+    /// Airflow always present (rising trip), m/s.
+    pub background_airflow_m_per_s: f64,
+    /// Airflow when all is well (falling trip: the running airflow; rising:
+    /// the background), m/s.
+    pub normal_airflow_m_per_s: f64,
+    /// Trip airflow with the reported values and trimmer setting, m/s (null
+    /// when it never switches at nominal conditions).
+    pub airflow_m_per_s: Option<f64>,
     /// Airflow at which the output releases again (hysteresis), m/s.
-    pub release_airflow_m_per_s: f64,
+    pub release_airflow_m_per_s: Option<f64>,
     /// Reference voltage at the comparator input for the trip, V.
     pub reference_voltage_v: f64,
     /// Sense voltage at the trip airflow, V.
@@ -109,15 +117,94 @@ pub struct ValueRow {
     pub reason: String,
 }
 
-/// A check that passes or fails.
+/// A check that passes or fails, judged at its worst condition.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Check {
-    /// Short name.
+    /// Stable kebab-case name (documented in docs/cli.md).
+    pub id: String,
+    /// Short name in words.
     pub name: String,
     /// Whether it passed.
     pub passed: bool,
-    /// What was compared, with the margin.
+    /// The worst value found, in `unit` (null when there is none).
+    pub value: Option<f64>,
+    /// The limit it is held against, in `unit`.
+    pub limit: Option<f64>,
+    /// How far inside the limit the worst value stays, in `unit` (negative
+    /// when the check fails).
+    pub margin: Option<f64>,
+    /// Unit of value, limit and margin.
+    pub unit: String,
+    /// The combination of conditions where the value is worst.
+    pub condition: String,
+    /// What was compared, in words.
     pub detail: String,
+}
+
+impl Check {
+    fn base(id: &str, name: &str, passed: bool) -> Self {
+        Self {
+            id: id.into(),
+            name: name.into(),
+            passed,
+            value: None,
+            limit: None,
+            margin: None,
+            unit: String::new(),
+            condition: String::new(),
+            detail: String::new(),
+        }
+    }
+    /// A check without a number: passed or not.
+    pub fn judged(id: &str, name: &str, passed: bool) -> Self {
+        Self::base(id, name, passed)
+    }
+    /// Passes when `value ≤ limit`; margin = limit − value. A value that
+    /// is not finite fails and is reported as null.
+    pub fn at_most(id: &str, name: &str, value: f64, limit: f64, unit: &str) -> Self {
+        Self::measured(id, name, value, limit, limit - value, unit)
+    }
+    /// Passes when `value ≥ limit`; margin = value − limit.
+    pub fn at_least(id: &str, name: &str, value: f64, limit: f64, unit: &str) -> Self {
+        Self::measured(id, name, value, limit, value - limit, unit)
+    }
+    fn measured(id: &str, name: &str, value: f64, limit: f64, margin: f64, unit: &str) -> Self {
+        let finite = value.is_finite() && limit.is_finite() && margin.is_finite();
+        Self {
+            value: value.is_finite().then_some(value),
+            limit: limit.is_finite().then_some(limit),
+            margin: margin.is_finite().then_some(margin),
+            unit: unit.into(),
+            ..Self::base(id, name, finite && margin >= 0.0)
+        }
+    }
+    /// Set the numbers of a judged check (pass/fail stays as judged).
+    pub fn numbers(mut self, value: Option<f64>, limit: Option<f64>, unit: &str) -> Self {
+        self.value = value.filter(|v| v.is_finite());
+        self.limit = limit.filter(|v| v.is_finite());
+        self.margin = match (self.value, self.limit) {
+            (Some(v), Some(l)) => Some(l - v),
+            _ => None,
+        };
+        self.unit = unit.into();
+        self
+    }
+    /// Override the verdict (for a check that holds its limit with an
+    /// extra condition, e.g. a stated design margin).
+    pub fn passed_if(mut self, passed: bool) -> Self {
+        self.passed = self.passed && passed;
+        self
+    }
+    /// Where the value is worst.
+    pub fn at(mut self, condition: impl Into<String>) -> Self {
+        self.condition = condition.into();
+        self
+    }
+    /// What was compared.
+    pub fn detail(mut self, detail: impl Into<String>) -> Self {
+        self.detail = detail.into();
+        self
+    }
 }
 
 /// Trip-point drift across ambient and supply.
@@ -131,8 +218,14 @@ pub struct DriftRow {
     pub element_rail_v: f64,
     /// Rail feeding the reference, V.
     pub reference_rail_v: f64,
+    /// Which build (part tolerance corner) this row is for.
+    pub corner: String,
+    /// Comparator offset drift applied, V.
+    pub offset_v: f64,
     /// Trip airflow there, m/s (null when the unit does not trip at any airflow).
     pub trip_airflow_m_per_s: Option<f64>,
+    /// Release airflow there, m/s (null when it never releases or never trips).
+    pub release_airflow_m_per_s: Option<f64>,
     /// Shift from the nominal trip airflow, m/s.
     pub shift_m_per_s: Option<f64>,
     /// Whether the output is tripped in still air.
@@ -171,9 +264,23 @@ pub struct EquivalentKing {
     pub at_temperature_c: f64,
 }
 
+/// Version of the JSON report's layout; raised when a field changes
+/// meaning or is removed.
+pub const SCHEMA_VERSION: u32 = 2;
+
 /// The whole report.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Report {
+    /// Layout version of this report ([`SCHEMA_VERSION`]).
+    pub schema_version: u32,
+    /// draftwire's version.
+    pub tool_version: String,
+    /// The design file as named on the command line.
+    pub design_file: String,
+    /// Whether every design check passed (diagnostics do not count).
+    pub passed: bool,
+    /// Which comparator limits the checks used, in words.
+    pub comparator_limits: String,
     /// Design title.
     pub title: String,
     /// Element description.
@@ -197,8 +304,10 @@ pub struct Report {
     pub drift: Vec<DriftRow>,
     /// Supply budget.
     pub supply: SupplyBudget,
-    /// Checks.
+    /// Design checks: the verdict.
     pub checks: Vec<Check>,
+    /// Solver self-checks: diagnostics that do not count toward the verdict.
+    pub diagnostics: Vec<Check>,
     /// Where a model is used outside its published range, with what to do.
     pub warnings: Vec<String>,
     /// Cautions that apply.
@@ -208,8 +317,13 @@ pub struct Report {
 }
 
 impl Report {
-    /// Whether every check passed.
+    /// Whether every design check passed.
     pub fn passed(&self) -> bool {
         self.checks.iter().all(|c| c.passed)
+    }
+    /// Set [`Report::passed`] from the checks.
+    pub fn with_verdict(mut self) -> Self {
+        self.passed = self.passed();
+        self
     }
 }

@@ -72,7 +72,7 @@ fn every_example_sizes_in_text() {
             "Element operating points",
             "Trip point",
             "Bill of values",
-            "Checks",
+            "Design checks",
             "Cautions",
         ] {
             assert!(
@@ -148,8 +148,67 @@ fn every_example_sizes_in_json_with_units_in_keys() {
                 ex.display()
             );
         }
+        // Every check carries the fields a script reads, its id is
+        // documented in docs/cli.md, and no id repeats.
+        let docs =
+            std::fs::read_to_string(Path::new(env!("CARGO_MANIFEST_DIR")).join("docs/cli.md"))
+                .unwrap();
+        let mut ids = std::collections::BTreeSet::new();
         for c in v["checks"].as_array().unwrap() {
-            assert!(c["name"].is_string() && c["passed"].is_boolean() && c["detail"].is_string());
+            for key in [
+                "id",
+                "name",
+                "passed",
+                "value",
+                "limit",
+                "margin",
+                "unit",
+                "condition",
+                "detail",
+            ] {
+                assert!(
+                    c.get(key).is_some(),
+                    "{}: check without {key}: {c}",
+                    ex.display()
+                );
+            }
+            let id = c["id"].as_str().unwrap();
+            assert!(
+                ids.insert(id.to_string()),
+                "{}: id {id} twice",
+                ex.display()
+            );
+            let documented = if let Some(rest) = id.strip_prefix("power-rating-") {
+                !rest.is_empty() && docs.contains("`power-rating-")
+            } else {
+                docs.contains(&format!("`{id}`"))
+            };
+            assert!(documented, "check id {id} is not in docs/cli.md");
+            assert!(c["passed"].is_boolean());
+            for key in ["value", "limit", "margin"] {
+                assert!(c[key].is_null() || c[key].as_f64().unwrap().is_finite());
+            }
+        }
+        for key in ["schema_version", "tool_version", "design_file", "passed"] {
+            assert!(v.get(key).is_some(), "{}: no {key}", ex.display());
+        }
+        assert!(v["trip"]["band_m_per_s"].as_array().unwrap().len() == 2);
+        assert!(v["trip"]["background_airflow_m_per_s"].is_number());
+        for d in v["drift"].as_array().unwrap() {
+            for key in [
+                "condition",
+                "ambient_c",
+                "element_rail_v",
+                "reference_rail_v",
+                "corner",
+                "trip_airflow_m_per_s",
+            ] {
+                assert!(
+                    d.get(key).is_some(),
+                    "{}: drift row without {key}",
+                    ex.display()
+                );
+            }
         }
         assert!(!v["cautions"].as_array().unwrap().is_empty());
         let passed = v["checks"]
@@ -167,7 +226,10 @@ fn csv_tables_have_headers() {
     for (table, header) in [
         ("values", "designator,part,value_ohm"),
         ("operating-points", "label,airflow_m_per_s"),
-        ("checks", "name,passed,detail"),
+        (
+            "checks",
+            "id,name,passed,value,limit,margin,unit,condition,detail",
+        ),
         ("drift", "condition,ambient_c"),
     ] {
         draftwire()

@@ -24,11 +24,11 @@ fn hysteresis_band_is_near_the_wanted_one() {
     // The feedback resistor is sized for 0.1 m/s and then snapped to E24
     // (±5 % steps), so the band lands within a few per cent of it.
     let r = report_for(&example("greenhouse-fan-alarm.toml"));
-    let band = (r.trip.release_airflow_m_per_s - r.trip.airflow_m_per_s).abs();
+    let band = (r.trip.release_airflow_m_per_s.unwrap() - r.trip.airflow_m_per_s.unwrap()).abs();
     assert!((band - 0.1).abs() < 0.01, "band {band} m/s");
     // Falling trip: the alarm releases only above the trip point.
-    assert!(r.trip.release_airflow_m_per_s > r.trip.airflow_m_per_s);
-    assert!((r.trip.airflow_m_per_s - 0.5).abs() < 1e-6);
+    assert!(r.trip.release_airflow_m_per_s.unwrap() > r.trip.airflow_m_per_s.unwrap());
+    assert!((r.trip.airflow_m_per_s.unwrap() - 0.5).abs() < 1e-6);
 }
 
 #[test]
@@ -65,7 +65,9 @@ fn no_hysteresis_gives_equal_trip_and_release() {
     let text = example("greenhouse-fan-alarm.toml")
         .replace("hysteresis = \"0.1 m/s\"", "hysteresis = \"none\"");
     let r = report_for(&text);
-    assert!((r.trip.release_airflow_m_per_s - r.trip.airflow_m_per_s).abs() < 1e-9);
+    assert!(
+        (r.trip.release_airflow_m_per_s.unwrap() - r.trip.airflow_m_per_s.unwrap()).abs() < 1e-9
+    );
     assert!(r.trip.hysteresis_note.contains("chatter"));
 }
 
@@ -76,8 +78,9 @@ fn hysteresis_in_volts_is_honoured() {
     let r = report_for(&text);
     let band_v = (r.trip.release_sense_voltage_v - r.trip.sense_voltage_v).abs();
     // The band at the sense node is 5 mV to within the E24 snapping of the
-    // feedback resistor (±5 % steps, so at most about ±2.5 %).
-    assert!((band_v - 5e-3).abs() < 0.15e-3, "band {band_v} V");
+    // feedback resistor: neighbouring E24 values lie up to 10 % apart
+    // (IEC 60063: 91 → 100), so the nearest is within about ±5 %.
+    assert!((band_v - 5e-3).abs() < 0.25e-3, "band {band_v} V");
 }
 
 #[test]

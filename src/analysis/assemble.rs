@@ -5,9 +5,8 @@ use crate::circuit::frontend::Arrangement;
 use crate::design::model::{Design, DriveSpec, HysteresisSpec, Load, StageKind};
 use crate::drive::Drive;
 use crate::eseries::format_rkm;
-use crate::precision::ENERGY_BALANCE_REL_TOL;
 use crate::quantity::format_engineering;
-use crate::report::{Check, OperatingPointRow, TripSummary, ValueRow};
+use crate::report::{OperatingPointRow, TripSummary, ValueRow};
 use crate::solve::{airflow_for_sense, OperatingPoint};
 
 /// Celsius from kelvin (ITS-90: t/°C = T/K − 273.15).
@@ -83,6 +82,12 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
     TripSummary {
         direction: design.detector.trip_on.name().into(),
         target_airflow_m_per_s: u_t,
+        band_m_per_s: [
+            design.detector.trip_band_m_per_s.0,
+            design.detector.trip_band_m_per_s.1,
+        ],
+        background_airflow_m_per_s: design.detector.background_airflow_m_per_s,
+        normal_airflow_m_per_s: design.detector.normal_airflow_m_per_s,
         airflow_m_per_s: core.trip_airflow_m_per_s,
         release_airflow_m_per_s: core.release_airflow_m_per_s,
         reference_voltage_v: {
@@ -257,106 +262,6 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     v
 }
 
-/// Core checks: energy balance, uniqueness, element limit, trimmer.
-pub fn core_checks(design: &Design, core: &SizedCore) -> Vec<Check> {
-    let mut c = Vec::new();
-    let worst = core
-        .table
-        .iter()
-        .map(|(_, p)| p.balance_residual())
-        .fold(0.0, f64::max);
-    c.push(Check {
-        name: "energy balance closes".into(),
-        passed: worst <= ENERGY_BALANCE_REL_TOL,
-        detail: format!(
-            "largest relative residual {worst:.1e} (limit {ENERGY_BALANCE_REL_TOL:.0e})"
-        ),
-    });
-    let bistable: Vec<String> = core
-        .table
-        .iter()
-        .filter(|(_, p)| p.roots.found() > 1)
-        .map(|(l, p)| {
-            let temps: Vec<String> = p
-                .roots
-                .iter()
-                .map(|(t, s)| format!("{:.1} °C{}", t - 273.15, if s { "" } else { " (unstable)" }))
-                .collect();
-            format!("{l}: {}", temps.join(", "))
-        })
-        .collect();
-    c.push(Check {
-        name: "single operating point".into(),
-        passed: bistable.is_empty(),
-        detail: if bistable.is_empty() {
-            "one steady temperature at every airflow in the table".into()
-        } else {
-            format!(
-                "more than one steady temperature — the element can jump between them ({}); add series resistance, use current drive or ask for less overheat",
-                bistable.join("; ")
-            )
-        },
-    });
-    if let Some(t_max) = core.element.max_temperature_k() {
-        // Hottest case: still air at the highest ambient, the element rail
-        // at its highest and the drive at the tolerance end that heats most.
-        let (t, how) = hottest_still_air(design, core);
-        c.push(Check {
-            name: "element temperature within its limit".into(),
-            passed: t <= t_max,
-            detail: format!(
-                "{:.1} °C in still air ({how}) against a limit of {:.1} °C (margin {:.1} K)",
-                t - 273.15,
-                t_max - 273.15,
-                t_max - t
-            ),
-        });
-    }
-    let x = core.trimmer_x;
-    let reach = (0.0..=1.0).contains(&x);
-    c.push(Check {
-        name: "trimmer reaches the target".into(),
-        passed: reach,
-        detail: if reach {
-            format!("target at {:.1} % of travel", 100.0 * x)
-        } else {
-            format!("target needs {:.1} % of travel, outside 0–100 %: change the fixed divider resistors", 100.0 * x)
-        },
-    });
-    c.push(Check {
-        name: "trimmer near mid-travel".into(),
-        // draftwire's window for "near mid-travel" (no source): a quarter of
-        // the travel either side leaves room to trim both ways.
-        passed: (0.25..=0.75).contains(&x),
-        detail: format!("{:.1} % of travel (wanted 25–75 %)", 100.0 * x),
-    });
-    let (k_lo, k_hi) = core.needed_ratio;
-    let d = core.front.divider;
-    let (k0, k1) = (d.ratio_at(0.0), d.ratio_at(1.0));
-    c.push(Check {
-        name: "trimmer covers tolerances and ambient range".into(),
-        passed: k0 <= k_lo && k1 >= k_hi,
-        detail: format!(
-            "wiper reaches {:.2}–{:.2} % of the rail; the tolerance and ambient corners need {:.2}–{:.2} %",
-            100.0 * k0,
-            100.0 * k1,
-            100.0 * k_lo,
-            100.0 * k_hi
-        ),
-    });
-    let u_t = design.detector.trip_airflow_m_per_s;
-    let err = (core.trip_airflow_m_per_s - u_t).abs();
-    c.push(Check {
-        name: "trip point on target".into(),
-        passed: err <= 1e-6 * u_t.max(1.0) && reach,
-        detail: format!(
-            "{:.4} m/s at the reported trimmer setting, target {u_t} m/s",
-            core.trip_airflow_m_per_s
-        ),
-    });
-    c
-}
-
 /// The cautions that apply, in words; each defers to local codes.
 pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
     let mut v = Vec::new();
@@ -369,7 +274,7 @@ pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
         ));
     }
     if let Some(t_max) = core.element.max_temperature_k() {
-        let (t_hot, how) = hottest_still_air(design, core);
+        let (t_hot, how) = super::checks::element::hottest_still_air(design, core);
         if t_hot > t_max {
             v.push(format!(
                 "The element would reach {:.0} °C in still air ({how}), above its safe limit of {:.0} °C in air: it can oxidise, drift or burn out, and it is a stronger ignition source. Ask for less overheat or choose an element rated hotter.",
@@ -397,9 +302,7 @@ pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
                 .into(),
         );
     }
-    v.push(
-        "A heated element is an ignition source: never use this detector near flammable gas, vapour or dust.".into(),
-    );
+    v.push(standing_cautions().remove(0));
     if let Some(out) = &design.output {
         if let Load::Relay {
             switches_mains: true,
@@ -413,44 +316,18 @@ pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
             ));
         }
     }
-    v.push("Not a medical or life-safety device: breath, sleep or patient monitoring needs certified equipment.".into());
-    v.push("These figures are design estimates: follow local codes and licensed practice, and verify the build on the bench.".into());
+    v.extend(standing_cautions().into_iter().skip(1));
     v
 }
 
-/// Element temperature in still air in the hottest condition the design
-/// allows, with a few words saying which condition that is. Falls back to
-/// the nominal still-air point when the hot corner has no steady state.
-fn hottest_still_air(design: &Design, core: &SizedCore) -> (f64, String) {
-    use super::size::{drive_with, element_rail};
-    let value = match core.drive {
-        Drive::SeriesResistor { series_ohm, .. } => series_ohm,
-        Drive::ConstantCurrent { current_a } => current_a,
-    };
-    let rail_hi = element_rail(design).map_or(0.0, |r| design.supply.rail_range_v(r).1);
-    let env = crate::element::Environment {
-        ambient_k: design.ambient.max_k,
-        ..core.env
-    };
-    let mut best = (
-        core.still_air.temperature_k,
-        "nominal ambient and supply".to_string(),
-    );
-    for f in [1.0 - design.drive_tolerance, 1.0 + design.drive_tolerance] {
-        let drive = drive_with(&design.drive, value * f, rail_hi);
-        if let Ok(p) = crate::solve::operating_point(&core.element, &drive, &env, 0.0) {
-            if p.temperature_k > best.0 {
-                best = (
-                    p.temperature_k,
-                    format!(
-                        "ambient {:.1} °C, highest rail, drive at its tolerance end",
-                        to_c(env.ambient_k)
-                    ),
-                );
-            }
-        }
-    }
-    best
+/// The cautions every report carries, whatever the design: the ignition
+/// source first, then the medical and bench notes.
+pub fn standing_cautions() -> Vec<String> {
+    vec![
+        "A heated element is an ignition source: never use this detector near flammable gas, vapour or dust.".into(),
+        "Not a medical or life-safety device: breath, sleep or patient monitoring needs certified equipment.".into(),
+        "These figures are design estimates: follow local codes and licensed practice, and verify the build on the bench.".into(),
+    ]
 }
 
 /// In words, what the detector does with the trimmer at position `x` when

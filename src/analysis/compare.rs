@@ -67,6 +67,14 @@ pub struct CompareRow {
     pub warnings: Vec<String>,
     /// Why the candidate could not be sized or solved, if so.
     pub error: Option<String>,
+    /// Design checks that pass for this candidate (the same checks as `size`).
+    pub checks_passed: usize,
+    /// Design checks judged for this candidate.
+    pub checks_total: usize,
+    /// Ids of the checks that fail.
+    pub failed_checks: Vec<String>,
+    /// Whether every design check passes for this candidate.
+    pub passed: bool,
 }
 
 /// The comparison table.
@@ -130,6 +138,10 @@ fn empty_row(label: &str, element: &Element, tol: f64) -> CompareRow {
         safe_in_air: None,
         warnings: Vec::new(),
         error: None,
+        checks_passed: 0,
+        checks_total: 0,
+        failed_checks: Vec::new(),
+        passed: false,
     }
 }
 
@@ -142,6 +154,8 @@ fn row(design: &Design, label: &str, element: &Element, tol: f64) -> CompareRow 
         Ok(c) => c,
         Err(e) => {
             out.error = Some(e.to_string());
+            out.checks_total = 1;
+            out.failed_checks = vec!["design-sizable".into()];
             return out;
         }
     };
@@ -157,7 +171,26 @@ fn row(design: &Design, label: &str, element: &Element, tol: f64) -> CompareRow 
     out.still_air_overheat_ratio = Some(s.overheat_ratio());
     out.still_air_power_w = Some(s.power_w);
     out.sense_change_v = Some(core.at_trip.sense_v - s.sense_v);
-    out.trip_airflow_m_per_s = Some(core.trip_airflow_m_per_s);
+    out.trip_airflow_m_per_s = core.trip_airflow_m_per_s;
+    // The same design checks as `size`, for this candidate.
+    match super::size(&d) {
+        Ok(report) => {
+            out.checks_total = report.checks.len();
+            out.checks_passed = report.checks.iter().filter(|c| c.passed).count();
+            out.failed_checks = report
+                .checks
+                .iter()
+                .filter(|c| !c.passed)
+                .map(|c| c.id.clone())
+                .collect();
+        }
+        Err(e) => {
+            out.checks_total = 1;
+            out.failed_checks = vec!["design-sizable".into()];
+            out.error = Some(e.to_string());
+        }
+    }
+    out.passed = out.checks_total > 0 && out.failed_checks.is_empty();
     out.sensitivity_v_per_m_per_s = Some(core.sensitivity_v_per_m_per_s);
     out.time_constant_s = Some(core.at_trip.time_constant_s);
     out.trip_drift_m_per_s_per_k = trip_drift(&d, &core);
@@ -216,7 +249,8 @@ fn trip_drift(design: &Design, core: &SizedCore) -> Option<f64> {
             &drive,
             &env,
             level,
-            core.trip_airflow_m_per_s,
+            core.trip_airflow_m_per_s
+                .unwrap_or(design.detector.trip_airflow_m_per_s),
         )
         .ok()
     };

@@ -1,23 +1,28 @@
 //! Analyses built on the solvers: sizing, drift, checks, the report.
 
 pub mod assemble;
+pub mod checks;
 pub mod compare;
+pub mod corners;
 pub mod drift;
 pub mod output;
 pub mod size;
 
 use crate::design::Design;
-use crate::report::Report;
+use crate::report::{Check, Report};
 pub use size::SizeError;
 
 /// Size and check a design: the whole `size` job.
 pub fn size(design: &Design) -> Result<Report, SizeError> {
     let core = size::size_core(design)?;
+    let grid = corners::evaluate(design, &core);
     let mut values = assemble::core_values(design, &core);
-    let mut checks = assemble::core_checks(design, &core);
-    let drift = drift::drift(design, &core);
-    checks.extend(drift::drift_checks(design, &drift));
-    let section = output::circuit_section(design, &core, &mut values);
+    let mut checks = checks::trip::checks(design, &grid);
+    checks.extend(checks::trimmer::checks(design, &grid));
+    checks.extend(checks::element::checks(design, &core, &grid));
+    checks.extend(steady_state_check(&core));
+    let drift = drift::drift(design, &core, &grid);
+    let section = output::circuit_section(design, &core, &grid, &mut values);
     values.extend(section.values);
     checks.extend(section.checks);
     let mut cautions = assemble::cautions(design, &core);
@@ -56,6 +61,12 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
             }),
     };
     Ok(Report {
+        schema_version: crate::report::SCHEMA_VERSION,
+        tool_version: env!("CARGO_PKG_VERSION").to_string(),
+        design_file: design.design_file.clone(),
+        passed: false,
+        comparator_limits: design.comparator.basis.describe().to_string(),
+        diagnostics: checks::diagnostics(design, &core),
         title: design.title.clone(),
         element,
         drive: core.drive.name().to_string(),
@@ -75,5 +86,85 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
         warnings,
         cautions,
         assumptions: design.assumptions.clone(),
-    })
+    }
+    .with_verdict())
+}
+
+/// `element-steady-state`: a steady state at every airflow of the table
+/// (still-air runaway fails here, and the report still gives the airflows
+/// that have one).
+fn steady_state_check(core: &size::SizedCore) -> Option<Check> {
+    let name = "element has a steady state at every airflow of the table";
+    if core.unsolved.is_empty() {
+        return None;
+    }
+    let list: Vec<String> = core
+        .unsolved
+        .iter()
+        .map(|(l, u, e)| format!("{l} ({u:.3} m/s): {e}"))
+        .collect();
+    Some(
+        Check::judged("element-steady-state", name, false)
+            .at(format!(
+                "nominal ambient and supply; {}",
+                core.unsolved[0].0
+            ))
+            .detail(format!(
+                "no steady state at: {}; the lowest airflow with one is {:.3} m/s",
+                list.join("; "),
+                core.still_air.airflow_m_per_s
+            )),
+    )
+}
+
+/// A report for a design that could not be sized at all: every value is
+/// absent, and the one failing check says why.
+pub fn unsized_report(design: &Design, error: &SizeError) -> Report {
+    Report {
+        schema_version: crate::report::SCHEMA_VERSION,
+        tool_version: env!("CARGO_PKG_VERSION").to_string(),
+        design_file: design.design_file.clone(),
+        passed: false,
+        comparator_limits: design.comparator.basis.describe().to_string(),
+        title: design.title.clone(),
+        element: format!(
+            "{}, {}",
+            design.element.resistance_law().name(),
+            design.element.cooling_law().name()
+        ),
+        drive: match design.drive {
+            crate::design::model::DriveSpec::SeriesResistor { .. } => {
+                "rail through a series resistor"
+            }
+            crate::design::model::DriveSpec::ConstantCurrent { .. } => "constant current",
+        }
+        .to_string(),
+        ambient_c: assemble::to_c(design.ambient.nominal_k),
+        pressure_pa: design.ambient.pressure_pa,
+        equivalent_kings_law: None,
+        operating_points: Vec::new(),
+        trip: crate::report::TripSummary {
+            direction: design.detector.trip_on.name().into(),
+            target_airflow_m_per_s: design.detector.trip_airflow_m_per_s,
+            band_m_per_s: [
+                design.detector.trip_band_m_per_s.0,
+                design.detector.trip_band_m_per_s.1,
+            ],
+            background_airflow_m_per_s: design.detector.background_airflow_m_per_s,
+            normal_airflow_m_per_s: design.detector.normal_airflow_m_per_s,
+            ..crate::report::TripSummary::default()
+        },
+        values: Vec::new(),
+        drift: Vec::new(),
+        supply: crate::report::SupplyBudget::default(),
+        checks: vec![
+            Check::judged("design-sizable", "the design can be sized", false)
+                .at("nominal parts, nominal ambient and supply")
+                .detail(error.to_string()),
+        ],
+        diagnostics: Vec::new(),
+        warnings: Vec::new(),
+        cautions: assemble::standing_cautions(),
+        assumptions: design.assumptions.clone(),
+    }
 }

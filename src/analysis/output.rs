@@ -5,11 +5,13 @@
 //! switch}`; this module chooses the values, walks the operating conditions
 //! and turns the results into bill rows, checks and cautions.
 
+use super::corners::Grid;
 use super::size::{drive_with, element_rail, SizedCore, DEFAULT_PULLUP_OHM};
 use crate::circuit::comparator::ComparatorParams;
 use crate::circuit::frontend::{millman, FrontEnd, OutputState};
 use crate::circuit::ratings::{
-    capacitor_rating_for, resistor_margin, resistor_rating_for, DEFAULT_CAPACITOR_VOLTAGE_MARGIN,
+    capacitor_rating_for, resistor_margin, resistor_rating_for, trimmer_margin,
+    DEFAULT_CAPACITOR_VOLTAGE_MARGIN,
 };
 use crate::circuit::regulator::LinearRegulator;
 use crate::circuit::switch::{
@@ -49,6 +51,17 @@ pub const DEFAULT_DECOUPLING_F: f64 = 100e-9;
 /// relays sit at about 70–80 %), at most 110 % at the highest (common
 /// practice, no source; the relay's data sheet rules).
 pub const RELAY_COIL_WINDOW: (f64, f64) = (0.8, 1.1);
+
+/// Share of the comparator's sink limit a design may use: 80 %, a stated
+/// design margin of 20 % (draftwire's choice, no source).
+pub const SINK_DESIGN_SHARE: f64 = 0.8;
+
+/// Share of the hold-off limit the sized R_B–R_BE divider aims at (a tenth
+/// to spare; draftwire's choice, no source).
+const HOLD_OFF_SPARE: f64 = 0.9;
+
+/// Rounds of re-sizing R_BE and R_B for the hold-off limit.
+const HOLD_OFF_ITERATIONS: usize = 6;
 
 /// Largest base–emitter voltage a switch may see while it must stay off:
 /// 0.6 × V_BE(on), about 0.42 V for silicon, where collector current is
@@ -90,6 +103,7 @@ fn transistor(design: &Design) -> TransistorRatings {
             hfe_min: p.hfe_min,
             vce_sat_v: p.vce_sat_v,
             vbe_on_v: p.vbe_on_v,
+            max_junction_k: crate::design::build::DEFAULT_TRANSISTOR_MAX_JUNCTION_K,
         }
     });
     TransistorRatings {
@@ -196,29 +210,47 @@ fn plan(design: &Design, stage: StageKind) -> Plan {
             // output is high (see `SwitchPolarity::drive_span_v`): size their
             // sum for the forced gain at the lowest comparator rail.
             let total = design_base_drive(ic.max(1e-9), forced_gain, vcc.1, &t, 0.0);
-            let rbe_exact = match total {
+            let mut rbe_exact = match total {
                 Ok(b) => b.hold_off_ohm,
                 // No headroom: keep the ratio so the checks can report it.
                 Err(_) => 1e4,
             };
-            let rbe = design.e_series.at_or_above(rbe_exact);
-            // KCL at the base with the chosen R_BE: R_P + R_B =
-            // (V_CC − V_BE)/(I_B + V_BE/R_BE).
+            let mut rbe = design.e_series.at_or_above(rbe_exact);
+            // Pull-up: the comparator sinks (V_CC,max − V_OL)/R_P when low,
+            // so R_P ≥ that over the sink limit less the design margin; aim
+            // at half the series sum (node swings about half-way) but not
+            // above the default.
+            let rp_min =
+                (vcc.2 - c.output_low_v).max(0.0) / (SINK_DESIGN_SHARE * c.sink_max_a).max(1e-12);
             let ib = ic.max(1e-9) / forced_gain;
-            let r_sum = ((vcc.1 - t.vbe_on_v) / (ib + t.vbe_on_v / rbe)).max(0.0);
-            // Pull-up: the comparator sinks (V_CC,max − V_OL)/R_P when low, so
-            // R_P ≥ that over the sink limit; aim at half the series sum
-            // (node swings about half-way) but not above the default.
-            let rp_min = (vcc.2 - c.output_low_v).max(0.0) / c.sink_max_a.max(1e-12);
-            let rp_exact = rp_min.max((0.5 * r_sum).min(DEFAULT_PULLUP_OHM));
-            let rp = given_pullup.unwrap_or_else(|| design.e_series.at_or_above(rp_exact));
-            // What is left for R_B; when nothing is left the forced gain
-            // cannot be met: a token 10 % keeps the network defined and the
-            // checks say why.
-            let rb_exact = r_sum - rp;
-            let rb = design
-                .e_series
-                .at_or_below(rb_exact.max(0.1 * r_sum).max(1.0));
+            // With the output low, R_B and R_BE divide V_OL: keep the base
+            // below the hold-off limit with a tenth to spare, lowering R_BE
+            // (which in turn lowers R_B) until it holds.
+            let k = HOLD_OFF_SPARE * HOLD_OFF_SHARE * t.vbe_on_v / c.output_low_v.max(1e-12);
+            let (mut rp, mut rp_exact, mut rb, mut rb_exact) = (0.0, 0.0, 0.0, 0.0);
+            for _ in 0..HOLD_OFF_ITERATIONS {
+                // KCL at the base with the chosen R_BE: R_P + R_B =
+                // (V_CC − V_BE)/(I_B + V_BE/R_BE).
+                let r_sum = ((vcc.1 - t.vbe_on_v) / (ib + t.vbe_on_v / rbe)).max(0.0);
+                rp_exact = rp_min.max((0.5 * r_sum).min(DEFAULT_PULLUP_OHM));
+                rp = given_pullup.unwrap_or_else(|| design.e_series.at_or_above(rp_exact));
+                // What is left for R_B; when nothing is left the forced gain
+                // cannot be met: a token 10 % keeps the network defined and
+                // the checks say why.
+                rb_exact = r_sum - rp;
+                rb = design
+                    .e_series
+                    .at_or_below(rb_exact.max(0.1 * r_sum).max(1.0));
+                // Lowering R_BE for the hold-off must not starve the base:
+                // stop while R_B keeps its share of the series sum; past
+                // that the check reports the conflict.
+                let rbe_next = k * rb / (1.0 - k);
+                if k >= 1.0 || rbe / (rb + rbe) <= k || rb_exact < 0.5 * r_sum {
+                    break;
+                }
+                rbe_exact = rbe_next;
+                rbe = design.e_series.at_or_below(rbe_exact.max(1.0));
+            }
             p.pullup_ohm = rp;
             p.pullup_exact = given_pullup.is_none().then_some(rp_exact);
             p.base = Some(((rb, rb_exact), (rbe, rbe_exact)));
@@ -326,6 +358,7 @@ enum End {
 pub fn circuit_section(
     design: &Design,
     core: &SizedCore,
+    grid: &Grid,
     values: &mut [ValueRow],
 ) -> CircuitSection {
     let mut s = CircuitSection::default();
@@ -387,14 +420,14 @@ pub fn circuit_section(
                         },
                     ));
                 }
-                Err(e) => s.checks.push(Check {
-                    name: "LED has voltage to run".into(),
-                    passed: false,
-                    detail: format!(
-                        "the {} rail cannot drive the LED through its switch: {e}",
-                        o.rail.name()
-                    ),
-                }),
+                Err(e) => s.checks.push(
+                    Check::judged("led-headroom", "LED has voltage to run", false)
+                        .at(format!("nominal {} rail", o.rail.name()))
+                        .detail(format!(
+                            "the {} rail cannot drive the LED through its switch: {e}",
+                            o.rail.name()
+                        )),
+                ),
             },
             (Load::Buzzer { current_a }, _) => s.values.push(row(
                 "BZ1",
@@ -426,14 +459,18 @@ pub fn circuit_section(
                 k.value_ohm = Some(*coil_ohm);
                 k.e_series = "given".into();
                 s.values.push(k);
-                s.checks.push(Check {
-                    name: "K1 coil voltage within its operating range".into(),
-                    passed: f_lo >= w_lo && f_hi <= w_hi,
-                    detail: format!(
+                let name = "K1 coil voltage within its operating range";
+                let c = if f_lo - w_lo < w_hi - f_hi {
+                    Check::at_least("k1-coil-voltage", name, 100.0 * f_lo, 100.0 * w_lo, "%")
+                        .at(format!("lowest load rail {vl_lo:.2} V"))
+                } else {
+                    Check::at_most("k1-coil-voltage", name, 100.0 * f_hi, 100.0 * w_hi, "%")
+                        .at(format!("highest load rail {vl_hi:.2} V"))
+                };
+                s.checks.push(c.detail(format!(
                         "the coil sees {:.2}–{:.2} V ({:.0}–{:.0} % of its {:.1} V rating) over the rail range; wanted {:.0}–{:.0} % (common practice — the relay's must-operate and maximum voltages rule)",
                         vl_lo - plan.switch_drop_v, vl_hi, 100.0 * f_lo, 100.0 * f_hi, coil_v, 100.0 * w_lo, 100.0 * w_hi
-                    ),
-                });
+                    )));
                 // Flyback diode across every coil.
                 let typical = DiodeRatings::typical_rectifier();
                 let d = DiodeRatings {
@@ -453,15 +490,14 @@ pub fn circuit_section(
                 dr.value_a = Some(d.if_avg_a);
                 s.values.push(dr);
                 if let Ok(f) = check_flyback_diode(&d, vl_hi, ic_max, DEFAULT_FLYBACK_VOLTAGE_MARGIN) {
-                    s.checks.push(Check {
-                        name: "D1 within its ratings".into(),
-                        passed: f.ok,
-                        detail: format!(
+                    s.checks.push(Check::at_least("d1-ratings", "D1 within its ratings", d.vrrm_v, need_v, "V")
+                        .passed_if(f.ok)
+                        .at(format!("coil current {} at the highest load rail {vl_hi:.2} V", eng(ic_max, "A")))
+                        .detail(format!(
                             "reverse {} against {} needed (2 × {vl_hi:.2} V, margin {}); forward {} against the coil's {} (margin {})",
                             eng(d.vrrm_v, "V"), eng(need_v, "V"), eng(f.reverse_margin_v, "V"),
                             eng(d.if_avg_a, "A"), eng(ic_max, "A"), eng(f.current_margin_a, "A")
-                        ),
-                    });
+                        )));
                 }
             }
             _ => {}
@@ -537,32 +573,47 @@ pub fn circuit_section(
                         ),
                         (false, false) => " — lower RB1 or allow a higher output.forced_gain".into(),
                     };
-                    s.checks.push(Check {
-                        name: "Q1 saturates at the wanted forced gain".into(),
-                        passed,
-                        detail: format!(
-                            "base current {} at the lowest drive ({span_lo:.2} V) for {} collector current: forced gain {:.1} (wanted ≤ {}, h_FE(min) {}){hint}",
-                            eng(ib, "A"), eng(ic_max, "A"), beta, o.forced_gain, t.hfe_min
-                        ),
-                    });
-                    if let Ok(q) = check_switch(&t, off_vce, ic_max.max(1e-12), ib) {
-                        s.checks.push(Check {
-                            name: "Q1 within its ratings".into(),
-                            passed: q.vce_margin_v >= 0.0 && q.ic_margin_a >= 0.0 && q.power_margin_w >= 0.0,
-                            detail: format!(
-                                "off-state V_CE {} against {} (margin {}); I_C {} against {} (margin {}); dissipation {} against {} (margin {})",
-                                eng(off_vce, "V"), eng(t.vce_max_v, "V"), eng(q.vce_margin_v, "V"),
-                                eng(ic_max, "A"), eng(t.ic_max_a, "A"), eng(q.ic_margin_a, "A"),
-                                eng(q.power_w, "W"), eng(t.p_max_w, "W"), eng(q.power_margin_w, "W")
-                            ),
-                        });
+                    s.checks.push(
+                        Check::at_most("q1-saturation", "Q1 saturates at the wanted forced gain", beta, o.forced_gain.min(t.hfe_min), "1")
+                            .passed_if(passed)
+                            .at(format!("lowest drive rail {span_lo:.2} V, highest load rail {vl_hi:.2} V"))
+                            .detail(format!(
+                                "base current {} at the lowest drive ({span_lo:.2} V) for {} collector current: forced gain {:.1} (wanted ≤ {}, h_FE(min) {}){hint}",
+                                eng(ib, "A"), eng(ic_max, "A"), beta, o.forced_gain, t.hfe_min
+                            )),
+                    );
+                    // The power rating derates linearly above 25 °C (data
+                    // sheets of the class give mW/°C above 25 °C).
+                    let p_allowed = o.transistor.allowed_power_w(ambient_max);
+                    let t_hot = TransistorRatings {
+                        p_max_w: p_allowed,
+                        ..t
+                    };
+                    if let Ok(q) = check_switch(&t_hot, off_vce, ic_max.max(1e-12), ib) {
+                        s.checks.push(
+                            Check::at_most("q1-ratings", "Q1 within its ratings", q.power_w, p_allowed, "W")
+                                .passed_if(q.vce_margin_v >= 0.0 && q.ic_margin_a >= 0.0)
+                                .at(format!("on at the highest load rail {vl_hi:.2} V, {:.1} °C ambient", ambient_max - 273.15))
+                                .detail(format!(
+                                    "off-state V_CE {} against {} (margin {}); I_C {} against {} (margin {}); dissipation {} against {} ({} at 25 °C derated to {:.1} °C, junction limit {:.0} °C; margin {})",
+                                    eng(off_vce, "V"), eng(t.vce_max_v, "V"), eng(q.vce_margin_v, "V"),
+                                    eng(ic_max, "A"), eng(t.ic_max_a, "A"), eng(q.ic_margin_a, "A"),
+                                    eng(q.power_w, "W"), eng(p_allowed, "W"), eng(t.p_max_w, "W"),
+                                    ambient_max - 273.15, o.transistor.max_junction_k - 273.15,
+                                    eng(q.power_margin_w, "W")
+                                )),
+                        );
                     }
                 }
-                Err(e) => s.checks.push(Check {
-                    name: "Q1 saturates at the wanted forced gain".into(),
-                    passed: false,
-                    detail: format!("the drive cannot turn Q1 on: {e}"),
-                }),
+                Err(e) => s.checks.push(
+                    Check::judged(
+                        "q1-saturation",
+                        "Q1 saturates at the wanted forced gain",
+                        false,
+                    )
+                    .at(format!("lowest drive rail {span_lo:.2} V"))
+                    .detail(format!("the drive cannot turn Q1 on: {e}")),
+                ),
             }
             // Held off in the idle state.
             let (v_be_off, how) = if npn {
@@ -587,19 +638,24 @@ pub fn circuit_section(
                 )
             };
             let limit = HOLD_OFF_SHARE * vbe;
-            s.checks.push(Check {
-                name: "Q1 held off when idle".into(),
-                passed: v_be_off <= limit,
-                detail: format!(
+            s.checks.push(Check::at_most("q1-hold-off", "Q1 held off when idle", v_be_off, limit, "V")
+                .at(if npn {
+                    format!("output low at its {} limit ({vol:.2} V)", if design.comparator.basis == crate::design::model::LimitsBasis::FullRange { "full-temperature-range" } else { "25 °C" })
+                } else {
+                    format!("lowest comparator rail {vcc_lo:.2} V, highest load rail {vl_hi:.2} V")
+                })
+                .detail(format!(
                     "{:.3} V across base–emitter from {how}; limit {limit:.2} V (0.6 × V_BE(on), common practice){}",
                     v_be_off,
                     if !npn && v_be_off > limit {
                         " — the pull-up goes to a lower rail than the PNP's emitter: pull RP1 up to the load rail or feed the load from the comparator's rail"
+                    } else if npn && v_be_off > limit {
+                        " — at this output-low level the RB1–RBE1 divider cannot hold Q1 off without starving its base: add a silicon diode in series with the base, use a PNP high-side stage, or a comparator with a lower guaranteed output-low level"
                     } else {
                         ""
                     }
                 ),
-            });
+            ));
         }
     }
 
@@ -626,17 +682,33 @@ pub fn circuit_section(
     ));
     let (ok_lo, m_lo) = cmp.supply_ok(vcc_lo);
     let (ok_hi, m_hi) = cmp.supply_ok(vcc_hi);
-    s.checks.push(Check {
-        name: "comparator supply within its range".into(),
-        passed: ok_lo && ok_hi,
-        detail: format!(
+    let supply_check = if m_lo < m_hi {
+        Check::at_least(
+            "comparator-supply",
+            "comparator supply within its range",
+            vcc_lo,
+            cmp.supply_min_v,
+            "V",
+        )
+        .at(format!("lowest {} rail", design.comparator.rail.name()))
+    } else {
+        Check::at_most(
+            "comparator-supply",
+            "comparator supply within its range",
+            vcc_hi,
+            cmp.supply_max_v,
+            "V",
+        )
+        .at(format!("highest {} rail", design.comparator.rail.name()))
+    };
+    s.checks
+        .push(supply_check.passed_if(ok_lo && ok_hi).detail(format!(
             "the {} rail spans {vcc_lo:.2}–{vcc_hi:.2} V against {:.1}–{:.1} V (margin {:.2} V)",
             design.comparator.rail.name(),
             cmp.supply_min_v,
             cmp.supply_max_v,
             m_lo.min(m_hi)
-        ),
-    });
+        )));
     s.checks.push(common_mode_check(design, core, &cmp));
 
     // Sink current with the output low.
@@ -652,21 +724,36 @@ pub fn circuit_section(
         }
         _ => (0.0, "nothing else (Q1 is off)"),
     };
-    let sink = pullup_sink + stage_sink;
-    let (sink_ok, sink_margin) = cmp.sink_ok(sink);
-    s.checks.push(Check {
-        name: "comparator output sink current within its limit".into(),
-        passed: sink_ok,
-        detail: format!(
-            "output low sinks {} ({} through the pull-up at {vcc_hi:.2} V, {} from {what}) against {} (margin {}){}",
-            eng(sink, "A"),
-            eng(pullup_sink, "A"),
-            eng(stage_sink, "A"),
-            eng(cmp.output_sink_max_a, "A"),
-            eng(sink_margin, "A"),
-            if sink_ok { "" } else { " — use a transistor stage (output.stage = \"npn-low-side\") or a smaller load current" }
-        ),
+    // The hysteresis feedback also returns into the low output: at most the
+    // highest node voltage less V_OL across R_F (+ R_I).
+    let (_, _, vref_top) = rail3(design, design.detector.reference_rail);
+    let feedback_sink = core.front.feedback_ohm.map_or(0.0, |rf| {
+        (vcc_hi.max(vref_top) - vol).max(0.0) / (rf + core.front.input_ohm)
     });
+    let sink = pullup_sink + stage_sink + feedback_sink;
+    let sink_limit = SINK_DESIGN_SHARE * cmp.output_sink_max_a;
+    let sink_check = Check::at_most(
+        "comparator-sink",
+        "comparator output sink current within its limit",
+        sink,
+        sink_limit,
+        "A",
+    )
+    .at(format!(
+        "output low, highest comparator rail {vcc_hi:.2} V, highest load rail {vl_hi:.2} V"
+    ));
+    let sink_ok = sink_check.passed;
+    s.checks.push(sink_check.detail(format!(
+        "output low sinks {} ({} through the pull-up, {} from {what}, {} of feedback current) against {} — {:.0} % of the {} limit, a stated design margin{}",
+        eng(sink, "A"),
+        eng(pullup_sink, "A"),
+        eng(stage_sink, "A"),
+        eng(feedback_sink, "A"),
+        eng(sink_limit, "A"),
+        100.0 * SINK_DESIGN_SHARE,
+        eng(cmp.output_sink_max_a, "A"),
+        if sink_ok { "" } else { " — use a transistor stage (output.stage = \"npn-low-side\"), a larger pull-up or a smaller load current" }
+    )));
 
     // Input bias current error.
     let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
@@ -674,10 +761,9 @@ pub fn circuit_section(
     let (e_plus, e_minus) = (cmp.bias_error_v(r_plus), cmp.bias_error_v(r_minus));
     let net = cmp.input_error_v(r_plus, r_minus) - cmp.input_offset_v;
     let sens = core.sensitivity_v_per_m_per_s.abs().max(1e-300);
-    s.checks.push(Check {
-        name: "input bias-current error below the offset".into(),
-        passed: net <= cmp.input_offset_v,
-        detail: format!(
+    s.checks.push(Check::at_most("comparator-input-error", "input bias-current error below the offset", net, cmp.input_offset_v, "V")
+        .at(format!("trimmer at {:.1} % of travel, bias and offset at their {} limits", 100.0 * core.trimmer_x, if design.comparator.basis == crate::design::model::LimitsBasis::FullRange { "full-temperature-range" } else { "25 °C" }))
+        .detail(format!(
             "{} through {} at (+) is {} ({:.4} m/s), through {} at (−) is {} ({:.4} m/s); the difference, {} ({:.4} m/s), stays within the {} offset when ≤ it",
             eng(cmp.input_bias_a, "A"),
             eng(r_plus, "Ω"),
@@ -689,8 +775,7 @@ pub fn circuit_section(
             eng(net, "V"),
             net / sens,
             eng(cmp.input_offset_v, "V")
-        ),
-    });
+        )));
 
     // ---- core resistor dissipations ----------------------------------
     if let (Drive::SeriesResistor { series_ohm, .. }, DriveSpec::SeriesResistor { rail, .. }) =
@@ -716,7 +801,7 @@ pub fn circuit_section(
                 i * i * rs
             })
             .fold(0.0, f64::max);
-        loads.push(Dissipation {
+        let cold = Dissipation {
             designator: "RS1",
             watts: p,
             case: format!(
@@ -724,6 +809,28 @@ pub fn circuit_section(
                 eng(r_min, "Ω"),
                 design.ambient.min_k - 273.15
             ),
+        };
+        // A hot stable state (where the element can latch) may draw more.
+        let hot = grid
+            .hot_states
+            .iter()
+            .map(|(b, si, h)| {
+                let rs = series_ohm * grid.builds[*b].drive;
+                (h.current_a * h.current_a * rs, si, h)
+            })
+            .max_by(|a, b| a.0.total_cmp(&b.0));
+        loads.push(match hot {
+            Some((w, si, h)) if w > cold.watts => Dissipation {
+                designator: "RS1",
+                watts: w,
+                case: format!(
+                    "element latched in its hot state ({:.1} °C, {}) at {}",
+                    h.temperature_k - 273.15,
+                    eng(h.current_a, "A"),
+                    grid.sites[*si].label
+                ),
+            },
+            _ => cold,
         });
     }
     let (_, _, vref_hi) = rail3(design, design.detector.reference_rail);
@@ -785,8 +892,14 @@ pub fn circuit_section(
     rate_resistors(design, &loads, values, &mut s, ambient_max);
 
     // ---- supply -------------------------------------------------------
+    // The element's current in a hot stable state, where it has one.
+    let hot_a = grid
+        .hot_states
+        .iter()
+        .map(|(_, _, h)| h.current_a)
+        .fold(0.0, f64::max);
     let currents = |state: OutputState, end: End| -> (f64, f64) {
-        rail_currents(design, core, &plan, state, end, pullup_fitted)
+        rail_currents(design, core, &plan, state, end, pullup_fitted, hot_a)
     };
     let tripped = core.idle_state.other();
     let (idle_in, idle_reg) = currents(core.idle_state, End::Nominal);
@@ -827,26 +940,37 @@ pub fn circuit_section(
             u.value_v = Some(g.output_v);
             u
         });
-        let headroom = reg.headroom_v(vin_lo);
-        s.checks.push(Check {
-            name: "regulator stays above dropout".into(),
-            passed: headroom >= 0.0,
-            detail: format!(
-                "lowest input {vin_lo:.2} V against {:.2} V output + {:.2} V dropout: headroom {headroom:.2} V",
-                g.output_v, g.dropout_v
-            ),
-        });
-        match reg.dissipation_w(vin_hi, i_out) {
+        // Dropout with the output at its highest, dissipation with it at its
+        // lowest: each at the end of the output tolerance that is worse.
+        let v_out_hi = g.output_v * (1.0 + g.tolerance);
+        let v_out_lo = g.output_v * (1.0 - g.tolerance);
+        let headroom = LinearRegulator {
+            output_v: v_out_hi,
+            ..reg
+        }
+        .headroom_v(vin_lo);
+        s.checks.push(
+            Check::at_least("regulator-dropout", "regulator stays above dropout", headroom, 0.0, "V")
+                .at(format!("lowest input {vin_lo:.2} V, output at its highest {v_out_hi:.2} V"))
+                .detail(format!(
+                    "lowest input {vin_lo:.2} V against {v_out_hi:.2} V output (nominal {:.2} V + {:.0} %) + {:.2} V dropout: headroom {headroom:.2} V",
+                    g.output_v, 100.0 * g.tolerance, g.dropout_v
+                )),
+        );
+        let reg_low = LinearRegulator {
+            output_v: v_out_lo,
+            ..reg
+        };
+        match reg_low.dissipation_w(vin_hi, i_out) {
             Ok(p) => {
                 let tj = reg.junction_k(ambient_max, p);
                 budget.regulator_dissipation_w = p;
                 budget.regulator_junction_c = Some(tj - 273.15);
-                s.checks.push(Check {
-                    name: "regulator junction temperature within its limit".into(),
-                    passed: tj <= g.max_junction_k,
-                    detail: format!(
+                s.checks.push(Check::at_most("regulator-junction", "regulator junction temperature within its limit", tj - 273.15, g.max_junction_k - 273.15, "°C")
+                    .at(format!("highest input {vin_hi:.2} V, output at its lowest {v_out_lo:.2} V, {:.1} °C ambient, worst load", ambient_max - 273.15))
+                    .detail(format!(
                         "P = ({vin_hi:.2} V − {:.2} V)·{} + {vin_hi:.2} V·{} = {}; T_J = {:.1} °C + P·{:.0} K/W = {:.1} °C against {:.1} °C (margin {:.1} K)",
-                        g.output_v,
+                        v_out_lo,
                         eng(i_out, "A"),
                         eng(g.quiescent_a, "A"),
                         eng(p, "W"),
@@ -855,14 +979,16 @@ pub fn circuit_section(
                         tj - 273.15,
                         g.max_junction_k - 273.15,
                         g.max_junction_k - tj
-                    ),
-                });
+                    )));
             }
-            Err(e) => s.checks.push(Check {
-                name: "regulator junction temperature within its limit".into(),
-                passed: false,
-                detail: format!("dissipation undefined: {e}"),
-            }),
+            Err(e) => s.checks.push(
+                Check::judged(
+                    "regulator-junction",
+                    "regulator junction temperature within its limit",
+                    false,
+                )
+                .detail(format!("dissipation undefined: {e}")),
+            ),
         }
     }
     s.supply = budget;
@@ -961,48 +1087,49 @@ fn rate_resistors(
             .chain(s.values.iter_mut())
             .find(|v| v.designator == l.designator);
         let name = format!("{} within its power rating", l.designator);
-        let check = match chosen
-            .and_then(|r| resistor_margin(l.watts, r, ambient_max, derating).map(|m| (r, m)))
-        {
+        let id = format!("power-rating-{}", l.designator.to_lowercase());
+        let margin = |r: f64| {
+            if trimmer {
+                trimmer_margin(l.watts, r, ambient_max, derating)
+            } else {
+                resistor_margin(l.watts, r, ambient_max, derating)
+            }
+        };
+        let at = format!("{}, {:.1} °C ambient", l.case, ambient_max - 273.15);
+        let check = match chosen.and_then(|r| margin(r).map(|m| (r, m))) {
             Ok((r, m)) => {
                 if let Some(v) = row {
                     v.rating_w = Some(r);
                     v.dissipation_w = Some(l.watts);
                     v.rating = format!("worst {}", eng(l.watts, "W"));
                 }
-                Check {
-                    name,
-                    passed: m.ok,
-                    detail: format!(
-                        "{} worst case ({}); {} {} rating allows {} at {:.0} % derating and {:.1} °C ambient (margin {}, {:.0} % of the temperature-derated rating)",
-                        eng(l.watts, "W"),
-                        l.case,
-                        if trimmer { "the given" } else { "a standard" },
-                        eng(r, "W"),
-                        eng(m.allowed_w, "W"),
-                        100.0 * derating,
-                        ambient_max - 273.15,
-                        eng(m.margin_w, "W"),
-                        100.0 * m.load_fraction
-                    ),
-                }
+                Check::at_most(&id, &name, l.watts, m.allowed_w, "W").at(at).detail(format!(
+                    "{} worst case; {} {} rating allows {} at {:.0} % derating and {:.1} °C ambient on the {} derating curve (margin {}, {:.0} % of the temperature-derated rating)",
+                    eng(l.watts, "W"),
+                    if trimmer { "the given" } else { "a standard" },
+                    eng(r, "W"),
+                    eng(m.allowed_w, "W"),
+                    100.0 * derating,
+                    ambient_max - 273.15,
+                    if trimmer { "cermet trimmer (70 → 125 °C)" } else { "film resistor (70 → 155 °C)" },
+                    eng(m.margin_w, "W"),
+                    100.0 * m.load_fraction
+                ))
             }
             Err(e) => {
                 if let Some(v) = row {
                     v.dissipation_w = Some(l.watts);
                     v.rating = format!("worst {}: no standard rating suffices", eng(l.watts, "W"));
                 }
-                Check {
-                    name,
-                    passed: false,
-                    detail: format!(
-                        "{} worst case ({}): no standard power rating carries it at {:.0} % derating and {:.1} °C ambient ({e}); raise the resistance or split the power",
+                Check::judged(&id, &name, false)
+                    .numbers(Some(l.watts), None, "W")
+                    .at(at)
+                    .detail(format!(
+                        "{} worst case: no standard power rating carries it at {:.0} % derating and {:.1} °C ambient ({e}); raise the resistance or split the power",
                         eng(l.watts, "W"),
-                        l.case,
                         100.0 * derating,
                         ambient_max - 273.15
-                    ),
-                }
+                    ))
             }
         };
         s.checks.push(check);
@@ -1020,6 +1147,7 @@ fn rail_currents(
     state: OutputState,
     end: End,
     pullup_fitted: bool,
+    hot_a: f64,
 ) -> (f64, f64) {
     let has_reg = design.supply.regulator.is_some();
     let v_of = |rail: Rail| {
@@ -1062,7 +1190,7 @@ fn rail_currents(
                     )
                     .map_or(v / series_ohm, |q| q.current_a)
                 })
-                .fold(0.0, f64::max);
+                .fold(hot_a, f64::max);
             add(rail, i)
         }
         (_, Drive::ConstantCurrent { current_a }) => add(
@@ -1170,25 +1298,29 @@ fn common_mode_check(design: &Design, core: &SizedCore, cmp: &ComparatorParams) 
             }
         }
     }
-    let passed = worst.0 >= 0.0 && unsolved.is_empty();
-    Check {
-        name: "comparator inputs within the common-mode range".into(),
-        passed,
-        detail: if worst.0.is_finite() {
-            format!(
-                "closest approach {} to the range {:.1} V … V+ − {:.1} V: margin {:.3} V{}",
-                worst.1,
-                cmp.common_mode_low_v,
-                cmp.common_mode_high_below_supply_v,
-                worst.0,
-                if unsolved.is_empty() {
-                    String::new()
-                } else {
-                    format!("; not solved: {}", unsolved.join("; "))
-                }
-            )
-        } else {
-            format!("no condition could be solved: {}", unsolved.join("; "))
-        },
-    }
+    Check::at_least(
+        "comparator-common-mode",
+        "comparator inputs within the common-mode range",
+        worst.0,
+        0.0,
+        "V",
+    )
+    .passed_if(unsolved.is_empty())
+    .at(worst.1.clone())
+    .detail(if worst.0.is_finite() {
+        format!(
+            "closest approach {} to the range {:.1} V … V+ − {:.1} V: margin {:.3} V{}",
+            worst.1,
+            cmp.common_mode_low_v,
+            cmp.common_mode_high_below_supply_v,
+            worst.0,
+            if unsolved.is_empty() {
+                String::new()
+            } else {
+                format!("; not solved: {}", unsolved.join("; "))
+            }
+        )
+    } else {
+        format!("no condition could be solved: {}", unsolved.join("; "))
+    })
 }

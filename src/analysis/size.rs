@@ -117,10 +117,18 @@ pub struct SizedCore {
     pub idle_state: OutputState,
     /// The resolved output stage.
     pub stage: StageKind,
-    /// Trip airflow with the chosen trimmer setting, m/s.
-    pub trip_airflow_m_per_s: f64,
+    /// Trip airflow with the chosen trimmer setting, m/s (`None` when the
+    /// output never switches at nominal conditions).
+    pub trip_airflow_m_per_s: Option<f64>,
     /// Release airflow, m/s.
-    pub release_airflow_m_per_s: f64,
+    pub release_airflow_m_per_s: Option<f64>,
+    /// Trip at nominal conditions, with what happens when it never switches.
+    pub trip: super::corners::Switching,
+    /// Release at nominal conditions.
+    pub release: super::corners::Switching,
+    /// Airflows of the table at which the element has no steady state, with
+    /// the reason.
+    pub unsolved: Vec<(String, f64, String)>,
     /// Lowest and highest wiper ratio the tolerance and ambient corners need.
     pub needed_ratio: (f64, f64),
     /// Notes for the report (why the feedback sits where it does, …).
@@ -293,10 +301,14 @@ fn row_label(k: f64) -> String {
     }
 }
 
-/// Wiper ratio needed for the trip sense level, across tolerance and ambient
-/// corners: every combination of ambient (min, nominal, max), element R0
-/// (±tol), drive (±tol) and rails (min, max; the same draw when the element
-/// and reference share a rail).
+/// Most times the divider's span is widened to cover its own parts'
+/// tolerances.
+const DIVIDER_WIDENINGS: usize = 8;
+
+/// Wiper ratio needed for the trip sense level at the bench (nominal
+/// ambient), across the element R0 (±tol), the drive (±tol) and the rails
+/// (min, max; the same draw when the element and reference share a rail).
+/// Corners without a steady state are left to the checks.
 fn needed_ratio_span(
     design: &Design,
     drive_value: f64,
@@ -315,11 +327,8 @@ fn needed_ratio_span(
     let mut k_max = f64::NEG_INFINITY;
     let te = design.element_tolerance;
     let td = design.drive_tolerance;
-    for ambient_k in [
-        design.ambient.min_k,
-        design.ambient.nominal_k,
-        design.ambient.max_k,
-    ] {
+    {
+        let ambient_k = design.ambient.nominal_k;
         let env_c = Environment { ambient_k, ..*env };
         for fe in [1.0 - te, 1.0 + te] {
             let element = design
@@ -334,8 +343,9 @@ fn needed_ratio_span(
                     };
                     for &ev in evs {
                         let drive = drive_with(&design.drive, drive_value * fd, ev);
-                        let p = operating_point(&element, &drive, &env_c, u)
-                            .map_err(solve_ctx("tolerance corner"))?;
+                        let Ok(p) = operating_point(&element, &drive, &env_c, u) else {
+                            continue;
+                        };
                         let k = p.sense_v / rv;
                         k_min = k_min.min(k);
                         k_max = k_max.max(k);
@@ -360,13 +370,27 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
     let u_t = design.detector.trip_airflow_m_per_s;
 
     let mut table = Vec::new();
+    let mut unsolved = Vec::new();
     for k in [0.0, 0.5, 1.0, 2.0] {
-        let p = operating_point(&element, &drive, &env, k * u_t)
-            .map_err(solve_ctx("operating point"))?;
-        table.push((row_label(k), p));
+        match operating_point(&element, &drive, &env, k * u_t) {
+            Ok(p) => table.push((row_label(k), p)),
+            // The trip airflow itself must have a steady state to size
+            // anything; other rows are reported as having none.
+            Err(e) if k != 1.0 => unsolved.push((row_label(k), k * u_t, e.to_string())),
+            Err(e) => return Err(solve_ctx("operating point at the trip airflow")(e)),
+        }
     }
-    let still_air = table[0].1;
-    let at_trip = table[2].1;
+    let at_trip = table
+        .iter()
+        .find(|(l, _)| l == "trip")
+        .map(|(_, p)| *p)
+        .ok_or(SizeError::Hysteresis("no trip point".into()))?;
+    // Still air, or the lowest airflow with a steady state when still air
+    // runs away.
+    let still_air = match table.first() {
+        Some((l, p)) if l == "still air" => *p,
+        _ => lowest_steady(&element, &drive, &env, u_t).unwrap_or(at_trip),
+    };
     let sens = sensitivity_v_per_m_per_s(&element, &drive, &env, &at_trip);
     let v_t = at_trip.sense_v;
 
@@ -394,17 +418,49 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
             None,
         ),
         (top, trim, bottom) => {
-            let (d, (exact_top, exact_bottom)) = Divider::size_with(
-                ref_rail_v,
-                k_t,
-                k_lo.min(k_t),
-                k_hi.max(k_t),
-                current,
-                design.e_series,
-                fixed(top),
-                fixed(trim),
-                fixed(bottom),
-            )?;
+            // Widen the asked-for span until the divider, with its parts at
+            // their tolerance ends, still reaches every build's need.
+            let tol = det.divider_tolerances;
+            let (need_lo, need_hi) = (k_lo.min(k_t), k_hi.max(k_t));
+            let mut widen = 1.0;
+            let mut best = None;
+            for _ in 0..DIVIDER_WIDENINGS {
+                let lo = k_t - widen * (k_t - need_lo);
+                let hi = k_t + widen * (need_hi - k_t);
+                let Ok((d, exact)) = Divider::size_with(
+                    ref_rail_v,
+                    k_t,
+                    lo,
+                    hi,
+                    current,
+                    design.e_series,
+                    fixed(top),
+                    fixed(trim),
+                    fixed(bottom),
+                ) else {
+                    break;
+                };
+                best = Some((d, exact));
+                let (k0, k1) = d.reach_at_tolerances(tol.top, tol.trimmer, tol.bottom);
+                if k0 <= need_lo && k1 >= need_hi {
+                    break;
+                }
+                widen *= 1.25;
+            }
+            let (d, (exact_top, exact_bottom)) = match best {
+                Some(b) => b,
+                None => Divider::size_with(
+                    ref_rail_v,
+                    k_t,
+                    need_lo,
+                    need_hi,
+                    current,
+                    design.e_series,
+                    fixed(top),
+                    fixed(trim),
+                    fixed(bottom),
+                )?,
+            };
             (d, Some((exact_top, d.trimmer_ohm, exact_bottom)))
         }
     };
@@ -480,10 +536,14 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         .unwrap_or_else(|| trimmer_position(&front, idle_state, v_t, sense_src));
     let trip_level = front.switching_sense_v(x, idle_state, sense_src);
     let release_level = front.switching_sense_v(x, idle_state.other(), sense_src);
-    let trip_airflow = airflow_for_sense(&element, &drive, &env, trip_level, u_t)
-        .map_err(solve_ctx("trip airflow"))?;
-    let release_airflow = airflow_for_sense(&element, &drive, &env, release_level, u_t)
-        .map_err(solve_ctx("release airflow"))?;
+    let sigma = sens.signum()
+        * if design.detector.trip_on == TripDirection::Rising {
+            1.0
+        } else {
+            -1.0
+        };
+    let trip = super::corners::switching_at(&element, &drive, &env, trip_level, u_t, sigma);
+    let release = super::corners::switching_at(&element, &drive, &env, release_level, u_t, sigma);
 
     Ok(SizedCore {
         env,
@@ -501,11 +561,37 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         trimmer_x: x,
         idle_state,
         stage,
-        trip_airflow_m_per_s: trip_airflow,
-        release_airflow_m_per_s: release_airflow,
+        trip_airflow_m_per_s: trip.airflow(),
+        release_airflow_m_per_s: release.airflow(),
+        trip,
+        release,
+        unsolved,
         needed_ratio: (k_lo, k_hi),
         notes,
     })
+}
+
+/// The lowest airflow (to 0.1 % of the trip airflow) at which the element
+/// has a steady state, by bisection between still air and the trip airflow.
+fn lowest_steady(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u_t: f64,
+) -> Option<OperatingPoint> {
+    let (mut lo, mut hi) = (0.0, u_t);
+    let mut best = operating_point(element, drive, env, hi).ok()?;
+    while hi - lo > 1e-3 * u_t {
+        let mid = 0.5 * (lo + hi);
+        match operating_point(element, drive, env, mid) {
+            Ok(p) => {
+                best = p;
+                hi = mid;
+            }
+            Err(_) => lo = mid,
+        }
+    }
+    Some(best)
 }
 
 fn fixed(s: Sizable) -> Option<f64> {

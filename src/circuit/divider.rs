@@ -63,6 +63,21 @@ impl Divider {
         (rail_v * self.ratio_at(x), lower * upper / (lower + upper))
     }
 
+    /// The wiper ratios the trimmer's two ends are sure to reach with every
+    /// part at its tolerance end (fractions `top`, `trimmer`, `bottom`):
+    /// the highest ratio at the grounded end,
+    /// `Rb(1+tb)/(Rt(1−tt) + Rp(1−tp) + Rb(1+tb))`, and the lowest at the
+    /// top end, `1 − Rt(1+tt)/(Rt(1+tt) + Rp(1−tp) + Rb(1−tb))`
+    /// (voltage-divider rule at the corners).
+    pub fn reach_at_tolerances(&self, top: f64, trimmer: f64, bottom: f64) -> (f64, f64) {
+        let (rt, rp, rb) = (self.top_ohm, self.trimmer_ohm, self.bottom_ohm);
+        let k0 =
+            rb * (1.0 + bottom) / (rt * (1.0 - top) + rp * (1.0 - trimmer) + rb * (1.0 + bottom));
+        let t_hi = rt * (1.0 + top);
+        let k1 = 1.0 - t_hi / (t_hi + rp * (1.0 - trimmer) + rb * (1.0 - bottom));
+        (k0, k1)
+    }
+
     /// Trimmer position giving wiper ratio `k` (may fall outside 0 … 1).
     pub fn position_for_ratio(&self, k: f64) -> f64 {
         (k * self.total_ohm() - self.bottom_ohm) / self.trimmer_ohm

@@ -172,6 +172,48 @@ pub fn resistor_margin(
     })
 }
 
+/// Cermet single-turn trimmers carry their rated power up to 70 °C (class
+/// data sheets: "0.5 W at +70 °C derated linearly to 0 W at 125 °C").
+pub const TRIMMER_FULL_POWER_TO_K: f64 = 343.15;
+
+/// See [`TRIMMER_FULL_POWER_TO_K`]: zero power at 125 °C.
+pub const TRIMMER_ZERO_POWER_AT_K: f64 = 398.15;
+
+/// Fraction of its rated power a cermet trimmer may carry at `ambient_k`:
+/// 1 up to 70 °C, linearly to 0 at 125 °C (see the constants).
+pub fn trimmer_temperature_derating(ambient_k: f64) -> Result<f64, RatingError> {
+    finite("ambient_k", ambient_k)?;
+    Ok(((TRIMMER_ZERO_POWER_AT_K - ambient_k)
+        / (TRIMMER_ZERO_POWER_AT_K - TRIMMER_FULL_POWER_TO_K))
+        .clamp(0.0, 1.0))
+}
+
+/// [`resistor_margin`] for a trimmer, on the trimmer's own derating curve
+/// ([`trimmer_temperature_derating`]).
+pub fn trimmer_margin(
+    dissipation_w: f64,
+    rating_w: f64,
+    ambient_k: f64,
+    derating: f64,
+) -> Result<ResistorMargin, RatingError> {
+    let dissipation_w = non_negative("dissipation_w", dissipation_w)?;
+    let rating_w = non_negative("rating_w", rating_w)?;
+    let derating = fraction("derating", derating)?;
+    let derated = trimmer_temperature_derating(ambient_k)? * rating_w;
+    let allowed_w = derating * derated;
+    let margin_w = allowed_w - dissipation_w;
+    Ok(ResistorMargin {
+        allowed_w,
+        margin_w,
+        load_fraction: if derated > 0.0 {
+            dissipation_w / derated
+        } else {
+            f64::INFINITY
+        },
+        ok: margin_w >= 0.0,
+    })
+}
+
 /// Power a trimmer may dissipate when only a share of its track carries
 /// current: "when only a portion of the resistance element is engaged in
 /// the circuit, the power rating is reduced in approximately the same

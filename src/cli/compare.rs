@@ -70,6 +70,6 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
     if !emit(&text) {
         return ExitCode::from(EXIT_INPUT);
     }
-    let failed = cmp.rows.iter().any(|r| r.error.is_some());
+    let failed = cmp.rows.iter().any(|r| r.error.is_some() || !r.passed);
     ExitCode::from(if failed { EXIT_DESIGN_FAIL } else { EXIT_PASS })
 }

@@ -144,11 +144,13 @@ fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
             return ExitCode::from(EXIT_INPUT);
         }
     };
+    // A design that cannot be sized still gets a full report whose one
+    // failing check says why (and the reason on stderr).
     let report = match draftwire::analysis::size(&design) {
         Ok(r) => r,
         Err(e) => {
             eprintln!("design failed: {file}: {e}");
-            return ExitCode::from(EXIT_DESIGN_FAIL);
+            draftwire::analysis::unsized_report(&design, &e)
         }
     };
     let text = match format {

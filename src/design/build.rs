@@ -437,46 +437,17 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     };
     let feedback_ohm = sz(rd, &t.feedback, "detector.feedback")?;
     let input_resistor_ohm = sz(rd, &t.input_resistor, "detector.input_resistor")?;
-    let normal_airflow_m_per_s = match &t.normal_airflow {
-        Some(v) => {
-            let u = rd.non_negative(v, "detector.normal_airflow", Dimension::Velocity)?;
-            let wrong_side = match trip_on {
-                TripDirection::Rising => u >= trip_airflow_m_per_s,
-                TripDirection::Falling => u <= trip_airflow_m_per_s,
-            };
-            if wrong_side {
-                return Err(rd.err(
-                    Some(v.span()),
-                    "detector.normal_airflow",
-                    format!(
-                        "a detector that trips on {} airflow needs its normal airflow {} the trip airflow ({trip_airflow_m_per_s} m/s), found {u} m/s",
-                        trip_on.name(),
-                        if trip_on == TripDirection::Rising { "below" } else { "above" }
-                    ),
-                ));
-            }
-            u
-        }
-        None => match trip_on {
-            TripDirection::Rising => {
-                rd.assumptions.push(
-                    "detector.normal_airflow not given: still air (0 m/s) is the normal state"
-                        .into(),
-                );
-                0.0
-            }
-            TripDirection::Falling => {
-                rd.assumptions.push(format!(
-                    "detector.normal_airflow not given: twice the trip airflow ({} m/s) taken as the normal running airflow",
-                    2.0 * trip_airflow_m_per_s
-                ));
-                2.0 * trip_airflow_m_per_s
-            }
-        },
-    };
+    let (normal_airflow_m_per_s, background_airflow_m_per_s) =
+        quiet_airflows(rd, t, trip_on, trip_airflow_m_per_s)?;
+    let trip_band_m_per_s = trip_band(rd, t, trip_airflow_m_per_s)?;
+    check_quiet_outside_band(rd, t, trip_on, trip_band_m_per_s, normal_airflow_m_per_s)?;
+    let divider_tolerances = divider_tolerances(rd, t, e_series)?;
     let detector = Detector {
         trip_airflow_m_per_s,
         normal_airflow_m_per_s,
+        trip_band_m_per_s,
+        background_airflow_m_per_s,
+        divider_tolerances,
         trip_on,
         reference_rail,
         top_ohm,
@@ -489,7 +460,13 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         input_resistor_ohm,
     };
 
-    let comparator = build_comparator(rd, raw.comparator.as_ref(), reference_rail, has_reg)?;
+    let comparator = build_comparator(
+        rd,
+        raw.comparator.as_ref(),
+        reference_rail,
+        has_reg,
+        &ambient,
+    )?;
     let output = match &raw.output {
         Some(o) => Some(build_output(rd, o, has_reg, &comparator, &supply)?),
         None => None,
@@ -520,6 +497,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
 
     Ok(Design {
         title,
+        design_file: rd.file.to_string(),
         element_name: raw.element.name.as_ref().map(|n| n.get_ref().clone()),
         e_series,
         ambient,
@@ -537,11 +515,324 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     })
 }
 
+/// Background airflow of a closed room when the file gives none, m/s:
+/// ISO 7730 treats mean air speeds at or below 0.05 m/s as causing no
+/// draught (its draught-rate formula uses 0.05 m/s for anything lower).
+pub const DEFAULT_BACKGROUND_AIRFLOW_M_PER_S: f64 = 0.05;
+
+/// Half-width of the default trip band as a share of the target (draftwire's
+/// own default, no source).
+pub const DEFAULT_BAND_SHARE: f64 = 0.3;
+
+/// Trimmer track tolerance when the file gives none: ±20 % (typical of
+/// cermet trimmers of the single-turn class; common practice, no source).
+pub const DEFAULT_TRIMMER_TOLERANCE: f64 = 0.2;
+
+/// The airflow at which the output must stay idle: (normal, background).
+/// A rising trip uses the background airflow (room air) for both; a
+/// falling trip its normal running airflow.
+fn quiet_airflows(
+    rd: &mut Reader<'_>,
+    t: &raw::RawDetector,
+    trip_on: TripDirection,
+    trip_airflow_m_per_s: f64,
+) -> R<(f64, f64)> {
+    match trip_on {
+        TripDirection::Rising => {
+            if let Some(v) = &t.normal_airflow {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "detector.normal_airflow",
+                    "a detector that trips on rising airflow is idle in room air: give detector.background_airflow (the airflow always present) instead of normal_airflow".into(),
+                ));
+            }
+            let u = match &t.background_airflow {
+                Some(v) => {
+                    rd.non_negative(v, "detector.background_airflow", Dimension::Velocity)?
+                }
+                None => {
+                    rd.assumptions.push(format!(
+                        "detector.background_airflow not given: {DEFAULT_BACKGROUND_AIRFLOW_M_PER_S} m/s of room air is always present (ISO 7730 counts mean air speeds up to 0.05 m/s as no draught)"
+                    ));
+                    DEFAULT_BACKGROUND_AIRFLOW_M_PER_S
+                }
+            };
+            Ok((u, u))
+        }
+        TripDirection::Falling => {
+            if let Some(v) = &t.background_airflow {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "detector.background_airflow",
+                    "a detector that trips on falling airflow is idle at its running airflow: give detector.normal_airflow instead of background_airflow".into(),
+                ));
+            }
+            let u = match &t.normal_airflow {
+                Some(v) => {
+                    let u = rd.non_negative(v, "detector.normal_airflow", Dimension::Velocity)?;
+                    if u <= trip_airflow_m_per_s {
+                        return Err(rd.err(
+                            Some(v.span()),
+                            "detector.normal_airflow",
+                            format!("a detector that trips on falling airflow needs its normal airflow above the trip airflow ({trip_airflow_m_per_s} m/s), found {u} m/s"),
+                        ));
+                    }
+                    u
+                }
+                None => {
+                    rd.assumptions.push(format!(
+                        "detector.normal_airflow not given: twice the trip airflow ({} m/s) taken as the normal running airflow",
+                        2.0 * trip_airflow_m_per_s
+                    ));
+                    2.0 * trip_airflow_m_per_s
+                }
+            };
+            Ok((u, 0.0))
+        }
+    }
+}
+
+/// The trip band, `["low", "high"]`, around the target.
+fn trip_band(rd: &mut Reader<'_>, t: &raw::RawDetector, target: f64) -> R<(f64, f64)> {
+    let Some(band) = &t.trip_band else {
+        let (lo, hi) = (
+            (1.0 - DEFAULT_BAND_SHARE) * target,
+            (1.0 + DEFAULT_BAND_SHARE) * target,
+        );
+        rd.assumptions.push(format!(
+            "detector.trip_band not given: ±30 % around the target, {} – {} m/s (draftwire's default)",
+            crate::quantity::format_sig(lo, 3),
+            crate::quantity::format_sig(hi, 3)
+        ));
+        return Ok((lo, hi));
+    };
+    let items = band.get_ref();
+    if items.len() != 2 {
+        return Err(rd.err(
+            Some(band.span()),
+            "detector.trip_band",
+            format!("expected two airflows, low and high, such as [\"0.2 m/s\", \"0.45 m/s\"]; found {} item(s)", items.len()),
+        ));
+    }
+    let lo = rd.non_negative(&items[0], "detector.trip_band", Dimension::Velocity)?;
+    let hi = rd.positive(&items[1], "detector.trip_band", Dimension::Velocity)?;
+    if !(lo < target && target < hi) {
+        return Err(rd.err(
+            Some(band.span()),
+            "detector.trip_band",
+            format!("expected a band with low < trip_airflow ({target} m/s) < high, found {lo} – {hi} m/s"),
+        ));
+    }
+    Ok((lo, hi))
+}
+
+/// The airflow where the output must stay idle lies outside the band, on
+/// the idle side.
+fn check_quiet_outside_band(
+    rd: &Reader<'_>,
+    t: &raw::RawDetector,
+    trip_on: TripDirection,
+    band: (f64, f64),
+    quiet: f64,
+) -> R<()> {
+    let (bad, key, value) = match trip_on {
+        TripDirection::Rising => (
+            quiet >= band.0,
+            "detector.background_airflow",
+            &t.background_airflow,
+        ),
+        TripDirection::Falling => (
+            quiet <= band.1,
+            "detector.normal_airflow",
+            &t.normal_airflow,
+        ),
+    };
+    if bad {
+        let span = value
+            .as_ref()
+            .map(|v| v.span())
+            .or(t.trip_band.as_ref().map(|b| b.span()));
+        return Err(rd.err(
+            span,
+            key,
+            format!(
+                "expected the airflow where the output stays idle ({quiet} m/s) {} the trip band ({} – {} m/s)",
+                if trip_on == TripDirection::Rising { "below" } else { "above" },
+                band.0,
+                band.1
+            ),
+        ));
+    }
+    Ok(())
+}
+
+/// Tolerances of the divider parts: from the E-series for the fixed
+/// resistors (IEC 60063 pairs each series with a tolerance), ±20 % for the
+/// trimmer track; each may be given.
+fn divider_tolerances(
+    rd: &mut Reader<'_>,
+    t: &raw::RawDetector,
+    e_series: ESeries,
+) -> R<DividerTolerances> {
+    let es = e_series.tolerance();
+    let read = |rd: &mut Reader<'_>, v: &Option<Value>, key: &str, default: f64, note: String| {
+        rd.or_default(v, default, &note, |r, v| r.fraction_in(v, key, 0.0, 0.5))
+    };
+    let top = read(
+        rd,
+        &t.top_tolerance,
+        "detector.top_tolerance",
+        es,
+        String::new(),
+    )?;
+    let bottom = read(
+        rd,
+        &t.bottom_tolerance,
+        "detector.bottom_tolerance",
+        es,
+        String::new(),
+    )?;
+    let trimmer = read(
+        rd,
+        &t.trimmer_tolerance,
+        "detector.trimmer_tolerance",
+        DEFAULT_TRIMMER_TOLERANCE,
+        String::new(),
+    )?;
+    if t.top_tolerance.is_none() || t.bottom_tolerance.is_none() || t.trimmer_tolerance.is_none() {
+        rd.assumptions.push(format!(
+            "divider tolerances not all given: fixed resistors ±{} % (the {} series), trimmer track ±{} % (common practice) unless stated",
+            crate::quantity::format_sig(100.0 * es, 3),
+            e_series.name(),
+            crate::quantity::format_sig(100.0 * DEFAULT_TRIMMER_TOLERANCE, 3)
+        ));
+    }
+    Ok(DividerTolerances {
+        top,
+        trimmer,
+        bottom,
+    })
+}
+
+/// Full-temperature-range limits of the open-collector comparator class
+/// next to its 25 °C limits (class data sheets, electrical characteristics
+/// at V+ = 5 V, 25 °C and full-range rows): offset 5 → 9 mV, bias 250 →
+/// 400 nA, output low at 4 mA 0.4 → 0.7 V, common mode to V+ − 1.5 V →
+/// V+ − 2 V.
+pub const CLASS_25C: ComparatorLimits = ComparatorLimits {
+    offset_v: 5e-3,
+    bias_a: 250e-9,
+    common_mode_headroom_v: 1.5,
+    output_low_v: 0.4,
+};
+
+/// See [`CLASS_25C`].
+pub const CLASS_FULL_RANGE: ComparatorLimits = ComparatorLimits {
+    offset_v: 9e-3,
+    bias_a: 400e-9,
+    common_mode_headroom_v: 2.0,
+    output_low_v: 0.7,
+};
+
+/// The full-range limits: as given, or the given 25 °C figure widened as the
+/// class widens it (offset ×1.8, bias ×1.6, output low ×1.75, headroom
+/// +0.5 V), recorded as an assumption.
+fn comparator_full_range(
+    rd: &mut Reader<'_>,
+    c: &raw::RawComparator,
+    at_25c: &ComparatorLimits,
+) -> R<ComparatorLimits> {
+    let mut widened = Vec::new();
+    let mut one = |rd: &mut Reader<'_>,
+                   v: &Option<Value>,
+                   key: &str,
+                   dim: Dimension,
+                   default: f64,
+                   shown: String|
+     -> R<f64> {
+        match v {
+            Some(v) => rd.non_negative(v, &format!("comparator.{key}"), dim),
+            None => {
+                widened.push(format!("{key} {shown}"));
+                Ok(default)
+            }
+        }
+    };
+    let offset_v = one(
+        rd,
+        &c.offset_full_range,
+        "offset_full_range",
+        Dimension::Voltage,
+        at_25c.offset_v * CLASS_FULL_RANGE.offset_v / CLASS_25C.offset_v,
+        crate::quantity::format_engineering(
+            at_25c.offset_v * CLASS_FULL_RANGE.offset_v / CLASS_25C.offset_v,
+            "V",
+            3,
+        ),
+    )?;
+    let bias_a = one(
+        rd,
+        &c.bias_current_full_range,
+        "bias_current_full_range",
+        Dimension::Current,
+        at_25c.bias_a * CLASS_FULL_RANGE.bias_a / CLASS_25C.bias_a,
+        crate::quantity::format_engineering(
+            at_25c.bias_a * CLASS_FULL_RANGE.bias_a / CLASS_25C.bias_a,
+            "A",
+            3,
+        ),
+    )?;
+    let output_low_v = one(
+        rd,
+        &c.output_low_full_range,
+        "output_low_full_range",
+        Dimension::Voltage,
+        at_25c.output_low_v * CLASS_FULL_RANGE.output_low_v / CLASS_25C.output_low_v,
+        crate::quantity::format_engineering(
+            at_25c.output_low_v * CLASS_FULL_RANGE.output_low_v / CLASS_25C.output_low_v,
+            "V",
+            3,
+        ),
+    )?;
+    let common_mode_headroom_v = one(
+        rd,
+        &c.common_mode_headroom_full_range,
+        "common_mode_headroom_full_range",
+        Dimension::Voltage,
+        at_25c.common_mode_headroom_v + CLASS_FULL_RANGE.common_mode_headroom_v
+            - CLASS_25C.common_mode_headroom_v,
+        crate::quantity::format_engineering(
+            at_25c.common_mode_headroom_v + CLASS_FULL_RANGE.common_mode_headroom_v
+                - CLASS_25C.common_mode_headroom_v,
+            "V",
+            3,
+        ),
+    )?;
+    if !widened.is_empty() {
+        rd.assumptions.push(format!(
+            "comparator full-temperature-range limits not given, widened from the 25 °C figures as the open-collector class widens them: {}",
+            widened.join(", ")
+        ));
+    }
+    Ok(ComparatorLimits {
+        offset_v,
+        bias_a,
+        common_mode_headroom_v,
+        output_low_v,
+    })
+}
+
+/// Maximum junction temperature of a small-signal silicon transistor when
+/// the file gives none: 150 °C (class data sheets: "operating and storage
+/// junction temperature −55 to +150 °C"; memory).
+pub const DEFAULT_TRANSISTOR_MAX_JUNCTION_K: f64 = 423.15;
+
 fn build_comparator(
     rd: &mut Reader<'_>,
     c: Option<&raw::RawComparator>,
     default_rail: Rail,
     has_reg: bool,
+    ambient: &Ambient,
 ) -> R<ComparatorSpec> {
     // Typical figures of the open-collector comparator class (no specific
     // part): offset 5 mV, bias 250 nA, common mode 0 … V+ − 1.5 V, sink
@@ -558,6 +849,10 @@ fn build_comparator(
         supply_max: None,
         supply_current: None,
         pullup: None,
+        offset_full_range: None,
+        bias_current_full_range: None,
+        common_mode_headroom_full_range: None,
+        output_low_full_range: None,
     };
     let typical = crate::circuit::comparator::ComparatorParams::typical_open_collector();
     let section_given = c.is_some();
@@ -662,18 +957,39 @@ fn build_comparator(
         Some(v) => rd.sizable(v, "comparator.pullup", Dimension::Resistance)?,
         None => Sizable::Auto,
     };
-    Ok(ComparatorSpec {
-        rail,
+    let at_25c = ComparatorLimits {
         offset_v,
         bias_a,
-        common_mode_low_v,
         common_mode_headroom_v,
-        sink_max_a,
         output_low_v,
+    };
+    let full_range = comparator_full_range(rd, c, &at_25c)?;
+    // The 25 °C limits hold near room temperature; outside 20–30 °C the
+    // data sheet's full-range limits apply (draftwire's window).
+    let basis = if ambient.min_k >= 293.15 && ambient.max_k <= 303.15 {
+        LimitsBasis::At25C
+    } else {
+        LimitsBasis::FullRange
+    };
+    let used = match basis {
+        LimitsBasis::At25C => at_25c,
+        LimitsBasis::FullRange => full_range,
+    };
+    Ok(ComparatorSpec {
+        rail,
+        offset_v: used.offset_v,
+        bias_a: used.bias_a,
+        common_mode_low_v,
+        common_mode_headroom_v: used.common_mode_headroom_v,
+        sink_max_a,
+        output_low_v: used.output_low_v,
         supply_min_v,
         supply_max_v,
         supply_current_a,
         pullup_ohm,
+        at_25c,
+        full_range,
+        basis,
     })
 }
 
@@ -895,6 +1211,7 @@ fn build_output(
                     hfe_min: t.hfe_min,
                     vce_sat_v: t.vce_sat_v,
                     vbe_on_v: t.vbe_on_v,
+                    max_junction_k: DEFAULT_TRANSISTOR_MAX_JUNCTION_K,
                 }
             }
         }
@@ -919,6 +1236,19 @@ fn build_output(
                 hfe_min: g(rd, &t.hfe_min, "hfe_min", Dimension::Fraction)?,
                 vce_sat_v: g(rd, &t.vce_sat, "vce_sat", Dimension::Voltage)?,
                 vbe_on_v: g(rd, &t.vbe_on, "vbe_on", Dimension::Voltage)?,
+                max_junction_k: rd.or_default(
+                    &t.max_junction,
+                    DEFAULT_TRANSISTOR_MAX_JUNCTION_K,
+                    "output.transistor.max_junction not given: 150 °C (typical of small-signal silicon transistors); the power rating derates linearly to zero there from 25 °C",
+                    |r, v| {
+                        let t = r.quantity(v, "output.transistor.max_junction", Dimension::Temperature)?;
+                        if t > 298.15 + 1.0 {
+                            Ok(t)
+                        } else {
+                            Err(r.err(Some(v.span()), "output.transistor.max_junction", format!("expected a junction limit above 26 °C, found {:.1} °C", t - 273.15)))
+                        }
+                    },
+                )?,
             }
         }
     };

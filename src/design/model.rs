@@ -160,8 +160,17 @@ impl Supply {
 pub struct Detector {
     /// Target trip airflow, m/s.
     pub trip_airflow_m_per_s: f64,
-    /// Airflow when all is well, m/s: the output must stay idle there.
+    /// Airflow when all is well, m/s: the output must stay idle there. For
+    /// a rising trip this is the background airflow.
     pub normal_airflow_m_per_s: f64,
+    /// The band the trip airflow must stay inside at every condition, m/s
+    /// (low, high).
+    pub trip_band_m_per_s: (f64, f64),
+    /// Airflow that is always present (rising trip: the detector must never
+    /// trip at or below it), m/s.
+    pub background_airflow_m_per_s: f64,
+    /// Tolerances of the divider's parts (fractions).
+    pub divider_tolerances: DividerTolerances,
     /// Trip direction.
     pub trip_on: TripDirection,
     /// Rail of the reference divider.
@@ -183,6 +192,51 @@ pub struct Detector {
     pub feedback_ohm: Sizable,
     /// Series input resistor.
     pub input_resistor_ohm: Sizable,
+}
+
+/// Tolerances of the reference divider's parts, fractions.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct DividerTolerances {
+    /// Fixed top resistor.
+    pub top: f64,
+    /// Trimmer track (end-to-end resistance).
+    pub trimmer: f64,
+    /// Fixed bottom resistor.
+    pub bottom: f64,
+}
+
+/// The comparator figures that change over temperature.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ComparatorLimits {
+    /// Input offset voltage (magnitude), V.
+    pub offset_v: f64,
+    /// Input bias current (magnitude), A.
+    pub bias_a: f64,
+    /// Common-mode headroom below the positive rail, V.
+    pub common_mode_headroom_v: f64,
+    /// Output low voltage at the sink limit, V.
+    pub output_low_v: f64,
+}
+
+/// Which set of comparator limits the checks use.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum LimitsBasis {
+    /// The 25 °C limits: the ambient range stays within 20–30 °C.
+    At25C,
+    /// The full-temperature-range limits: the ambient range leaves 20–30 °C.
+    FullRange,
+}
+
+impl LimitsBasis {
+    /// In words, for the report.
+    pub fn describe(self) -> &'static str {
+        match self {
+            LimitsBasis::At25C => "25 °C limits (the ambient range stays within 20–30 °C)",
+            LimitsBasis::FullRange => {
+                "full-temperature-range limits (the ambient range leaves 20–30 °C)"
+            }
+        }
+    }
 }
 
 /// Comparator figures (datasheet or typical).
@@ -210,6 +264,12 @@ pub struct ComparatorSpec {
     pub supply_current_a: f64,
     /// Output pull-up resistor.
     pub pullup_ohm: Sizable,
+    /// The 25 °C limits as given.
+    pub at_25c: ComparatorLimits,
+    /// The full-temperature-range limits as given.
+    pub full_range: ComparatorLimits,
+    /// Which of the two the fields above hold.
+    pub basis: LimitsBasis,
 }
 
 /// The output stage kind, as resolved while reading the file (`"auto"`
@@ -267,6 +327,24 @@ pub struct TransistorSpec {
     pub vce_sat_v: f64,
     /// Vbe(on), V.
     pub vbe_on_v: f64,
+    /// Maximum junction temperature, K: `power_max_w` holds at 25 °C and
+    /// derates linearly to zero here.
+    pub max_junction_k: f64,
+}
+
+impl TransistorSpec {
+    /// Allowed dissipation at ambient `ambient_k`: the data-sheet linear
+    /// derating above 25 °C, `P(Ta) = P_max·(Tj,max − Ta)/(Tj,max − 25 °C)`
+    /// (small-signal transistor data sheets give it as mW/°C above 25 °C).
+    pub fn allowed_power_w(&self, ambient_k: f64) -> f64 {
+        let t25 = 298.15;
+        if ambient_k <= t25 {
+            self.power_max_w
+        } else {
+            (self.power_max_w * (self.max_junction_k - ambient_k) / (self.max_junction_k - t25))
+                .max(0.0)
+        }
+    }
 }
 
 /// Diode figures.
@@ -309,6 +387,8 @@ pub struct RatingsSpec {
 pub struct Design {
     /// Title.
     pub title: String,
+    /// The name of the design file as given to the reader.
+    pub design_file: String,
     /// The element's free-text name, when the file gives one.
     pub element_name: Option<String>,
     /// E-series for sized resistors.

@@ -249,8 +249,18 @@ pub struct RawDrive {
 pub struct RawDetector {
     /// Target trip airflow.
     pub trip_airflow: Value,
-    /// Airflow when all is well (fan running, door shut).
+    /// Airflow when all is well (fan running): falling trip only.
     pub normal_airflow: Option<Value>,
+    /// Airflow always present (room air): rising trip only.
+    pub background_airflow: Option<Value>,
+    /// The band the trip airflow must stay inside: `["low", "high"]`.
+    pub trip_band: Option<Spanned<Vec<Value>>>,
+    /// Tolerance of the fixed top resistor.
+    pub top_tolerance: Option<Value>,
+    /// Tolerance of the trimmer track.
+    pub trimmer_tolerance: Option<Value>,
+    /// Tolerance of the fixed bottom resistor.
+    pub bottom_tolerance: Option<Value>,
     /// `rising` or `falling`.
     pub trip_on: Word,
     /// Rail the reference divider hangs from.
@@ -281,6 +291,14 @@ pub struct RawComparator {
     pub rail: Option<Word>,
     /// Input offset voltage.
     pub offset: Option<Value>,
+    /// Input offset voltage over the full temperature range.
+    pub offset_full_range: Option<Value>,
+    /// Input bias current over the full temperature range.
+    pub bias_current_full_range: Option<Value>,
+    /// Common-mode headroom over the full temperature range.
+    pub common_mode_headroom_full_range: Option<Value>,
+    /// Output low voltage over the full temperature range.
+    pub output_low_full_range: Option<Value>,
     /// Input bias current.
     pub bias_current: Option<Value>,
     /// Lowest common-mode input above the negative rail.
@@ -349,6 +367,9 @@ pub struct RawTransistor {
     pub vce_sat: Option<Value>,
     /// Vbe(on).
     pub vbe_on: Option<Value>,
+    /// Maximum junction temperature (the power rating derates linearly
+    /// to zero there from 25 °C).
+    pub max_junction: Option<Value>,
 }
 
 /// `[output.diode]`.

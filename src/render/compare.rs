@@ -61,6 +61,15 @@ fn cells(r: &CompareRow) -> Vec<(&'static str, String)> {
                 None => "unknown".into(),
             },
         ),
+        (
+            "design checks passed",
+            format!(
+                "{} of {}{}",
+                r.checks_passed,
+                r.checks_total,
+                if r.passed { "" } else { " FAIL" }
+            ),
+        ),
     ]
 }
 
@@ -107,6 +116,13 @@ pub fn render_text(c: &Comparison) -> String {
         out.push('\n');
     }
     for r in &c.rows {
+        if !r.failed_checks.is_empty() {
+            out.push_str(&format!(
+                "\n{}: failing design checks: {}\n",
+                r.label,
+                r.failed_checks.join(", ")
+            ));
+        }
         if let Some(e) = &r.error {
             out.push_str(&format!("\n{}: FAILED: {e}\n", r.label));
         }
@@ -122,7 +138,7 @@ pub fn render_csv(c: &Comparison) -> String {
     let mut out = String::from(
         "label,element,tolerance_percent,drive,still_air_temperature_c,still_air_rise_k,still_air_overheat_ratio,\
          still_air_power_w,sense_change_v,trip_airflow_m_per_s,sensitivity_v_per_m_per_s,trip_drift_m_per_s_per_k,\
-         time_constant_s,hottest_temperature_c,max_temperature_c,safe_in_air,warnings,error\r\n",
+         time_constant_s,hottest_temperature_c,max_temperature_c,safe_in_air,checks_passed,checks_total,failed_checks,passed,warnings,error\r\n",
     );
     let f = |x: Option<f64>| x.map_or(String::new(), |v| format!("{v}"));
     for r in &c.rows {
@@ -143,6 +159,10 @@ pub fn render_csv(c: &Comparison) -> String {
             f(r.hottest_temperature_c),
             f(r.max_temperature_c),
             r.safe_in_air.map_or(String::new(), |b| b.to_string()),
+            r.checks_passed.to_string(),
+            r.checks_total.to_string(),
+            field(&r.failed_checks.join("; ")),
+            r.passed.to_string(),
             field(&r.warnings.join("; ")),
             field(r.error.as_deref().unwrap_or("")),
         ];

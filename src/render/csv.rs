@@ -119,11 +119,35 @@ pub fn render(report: &Report, table: Table) -> String {
             }
         }
         Table::Checks => {
-            line(&mut out, &["name", "passed", "detail"].map(String::from));
+            line(
+                &mut out,
+                &[
+                    "id",
+                    "name",
+                    "passed",
+                    "value",
+                    "limit",
+                    "margin",
+                    "unit",
+                    "condition",
+                    "detail",
+                ]
+                .map(String::from),
+            );
             for c in &report.checks {
                 line(
                     &mut out,
-                    &[c.name.clone(), c.passed.to_string(), c.detail.clone()],
+                    &[
+                        c.id.clone(),
+                        c.name.clone(),
+                        c.passed.to_string(),
+                        opt(c.value),
+                        opt(c.limit),
+                        opt(c.margin),
+                        c.unit.clone(),
+                        c.condition.clone(),
+                        c.detail.clone(),
+                    ],
                 );
             }
         }
@@ -135,7 +159,10 @@ pub fn render(report: &Report, table: Table) -> String {
                     "ambient_c",
                     "element_rail_v",
                     "reference_rail_v",
+                    "corner",
+                    "offset_v",
                     "trip_airflow_m_per_s",
+                    "release_airflow_m_per_s",
                     "shift_m_per_s",
                     "tripped_in_still_air",
                     "note",
@@ -150,7 +177,10 @@ pub fn render(report: &Report, table: Table) -> String {
                         num(d.ambient_c),
                         num(d.element_rail_v),
                         num(d.reference_rail_v),
+                        d.corner.clone(),
+                        num(d.offset_v),
                         opt(d.trip_airflow_m_per_s),
+                        opt(d.release_airflow_m_per_s),
                         opt(d.shift_m_per_s),
                         d.tripped_in_still_air.to_string(),
                         d.note.clone(),

@@ -104,6 +104,11 @@ fn eng(x: f64, unit: &str) -> String {
     format_engineering(x, unit, 3)
 }
 
+/// An airflow with its unit, or what happens instead.
+fn airflow_or(u: Option<f64>, instead: &str) -> String {
+    u.map_or_else(|| instead.to_string(), |u| format!("{u:.3} m/s"))
+}
+
 fn heading(out: &mut String, title: &str) {
     let _ = writeln!(out, "\n{title}\n{}", "─".repeat(title.chars().count()));
 }
@@ -131,16 +136,32 @@ pub fn render(r: &Report, file: &str) -> String {
             k.at_temperature_c
         );
     }
-    let verdict = if r.passed() {
-        "PASS: every check passed".to_string()
-    } else {
+    let failed: Vec<&str> = r
+        .checks
+        .iter()
+        .filter(|c| !c.passed)
+        .map(|c| c.id.as_str())
+        .collect();
+    let passed_n = r.checks.len() - failed.len();
+    let verdict = if failed.is_empty() {
         format!(
-            "FAIL: {} of {} checks failed",
-            r.checks.iter().filter(|c| !c.passed).count(),
+            "PASS: {passed_n} of {} design checks passed at their worst combined condition",
             r.checks.len()
         )
+    } else {
+        format!(
+            "FAIL: {passed_n} of {} design checks passed; failing: {}",
+            r.checks.len(),
+            failed.join(", ")
+        )
     };
-    let _ = writeln!(out, "result        {verdict}");
+    out.push_str(&wrap(
+        &verdict,
+        "result        ",
+        "              ",
+        WRAP_WIDTH,
+    ));
+    let _ = writeln!(out, "comparator    {}", r.comparator_limits);
 
     heading(
         &mut out,
@@ -190,10 +211,28 @@ pub fn render(r: &Report, file: &str) -> String {
     );
     let trip_lines = [
         ("target", format!("{:.3} m/s", tr.target_airflow_m_per_s)),
-        ("trips at", format!("{:.3} m/s", tr.airflow_m_per_s)),
+        (
+            "trip band",
+            format!(
+                "{:.3}–{:.3} m/s at every condition",
+                tr.band_m_per_s[0], tr.band_m_per_s[1]
+            ),
+        ),
+        (
+            if tr.direction == "rising" {
+                "background airflow"
+            } else {
+                "normal airflow"
+            },
+            format!(
+                "{:.3} m/s (the output must stay idle there)",
+                tr.normal_airflow_m_per_s
+            ),
+        ),
+        ("trips at", airflow_or(tr.airflow_m_per_s, "never switches")),
         (
             "releases at",
-            format!("{:.3} m/s", tr.release_airflow_m_per_s),
+            airflow_or(tr.release_airflow_m_per_s, "never releases"),
         ),
         (
             "sense voltage at trip",
@@ -275,23 +314,44 @@ pub fn render(r: &Report, file: &str) -> String {
             "element rail",
             "ref rail",
             "trips at",
+            "releases at",
             "shift",
             "note",
         ]);
+        let mut corners = Vec::new();
         for d in &r.drift {
+            let mut condition = d.condition.clone();
+            if d.corner != "nominal parts" || d.offset_v != 0.0 {
+                corners.push(format!(
+                    "[{}] {}{}",
+                    corners.len() + 1,
+                    d.corner,
+                    if d.offset_v != 0.0 {
+                        format!(", comparator offset drift {:+.1} mV", 1e3 * d.offset_v)
+                    } else {
+                        String::new()
+                    }
+                ));
+                condition.push_str(&format!(" [{}]", corners.len()));
+            }
             t.push(vec![
-                d.condition.clone(),
+                condition,
                 format!("{:.1} °C", d.ambient_c),
                 format!("{:.3} V", d.element_rail_v),
                 format!("{:.3} V", d.reference_rail_v),
                 d.trip_airflow_m_per_s
+                    .map_or("—".into(), |u| format!("{u:.3} m/s")),
+                d.release_airflow_m_per_s
                     .map_or("—".into(), |u| format!("{u:.3} m/s")),
                 d.shift_m_per_s
                     .map_or("—".into(), |u| format!("{u:+.3} m/s")),
                 d.note.clone(),
             ]);
         }
-        t.render(&mut out, "  ", "lrrrrrl");
+        t.render(&mut out, "  ", "lrrrrrrl");
+        for c in &corners {
+            out.push_str(&wrap(c, "  ", "      ", WRAP_WIDTH));
+        }
     }
 
     if r.supply.idle_a > 0.0 {
@@ -310,15 +370,34 @@ pub fn render(r: &Report, file: &str) -> String {
         key_values(&mut out, &lines);
     }
 
-    heading(&mut out, "Checks");
-    for c in &r.checks {
-        let text = format!(
-            "{} {} — {}",
+    heading(&mut out, "Design checks (failing first)");
+    let failing = r.checks.iter().filter(|c| !c.passed);
+    let passing = r.checks.iter().filter(|c| c.passed);
+    for c in failing.chain(passing) {
+        let mut text = format!(
+            "{} {} [{}] — {}",
             if c.passed { "pass" } else { "FAIL" },
             c.name,
+            c.id,
             c.detail
         );
+        if !c.condition.is_empty() {
+            text.push_str(&format!(" (worst at: {})", c.condition));
+        }
         out.push_str(&wrap(&text, "  ", "       ", WRAP_WIDTH));
+    }
+    if !r.diagnostics.is_empty() {
+        heading(&mut out, "Solver diagnostics (not design checks)");
+        for c in &r.diagnostics {
+            let text = format!(
+                "{} {} [{}] — {}",
+                if c.passed { "ok  " } else { "BAD " },
+                c.name,
+                c.id,
+                c.detail
+            );
+            out.push_str(&wrap(&text, "  ", "       ", WRAP_WIDTH));
+        }
     }
 
     if !r.warnings.is_empty() {
