@@ -1,0 +1,289 @@
+//! The verdict: checks at their worst combined condition, always a report,
+//! and `compare` judged like `size`.
+
+use assert_cmd::Command;
+use draftwire::analysis::size;
+use draftwire::circuit::divider::Divider;
+use draftwire::design::parse_design;
+use draftwire::report::Report;
+use std::path::{Path, PathBuf};
+
+fn example_path(name: &str) -> PathBuf {
+    Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("examples")
+        .join(name)
+}
+
+fn example(name: &str) -> String {
+    std::fs::read_to_string(example_path(name)).unwrap()
+}
+
+fn report(name: &str, text: &str) -> Report {
+    size(&parse_design(name, text).unwrap()).unwrap()
+}
+
+fn draftwire() -> Command {
+    let mut c = Command::cargo_bin("draftwire").unwrap();
+    c.env_remove("RUST_BACKTRACE");
+    c
+}
+
+fn json_of(out: &std::process::Output) -> serde_json::Value {
+    serde_json::from_slice(&out.stdout).expect("stdout is a JSON report")
+}
+
+/// Trimmer reach at the tolerance corners, hand calculation (voltage-divider
+/// rule): Rt = 10 kΩ, Rp = 2 kΩ, Rb = 3 kΩ with ±5 %, ±20 %, ±5 %.
+/// Grounded end, highest: 3150/(9500 + 1600 + 3150) = 3150/14250 =
+/// 0.2210526…; top end, lowest: 1 − 10500/(10500 + 1600 + 2850) =
+/// 1 − 10500/14950 = 0.2976588…
+#[test]
+fn trimmer_reach_at_tolerance_corners_matches_hand_calculation() {
+    let d = Divider {
+        top_ohm: 10e3,
+        trimmer_ohm: 2e3,
+        bottom_ohm: 3e3,
+    };
+    let (k0, k1) = d.reach_at_tolerances(0.05, 0.2, 0.05);
+    assert!((k0 - 3150.0 / 14250.0).abs() < 1e-15, "{k0}");
+    assert!((k1 - (1.0 - 10500.0 / 14950.0)).abs() < 1e-15, "{k1}");
+    // Nominal reach is wider on both sides: 3/15 = 0.2 and 5/15 = 0.333….
+    assert!(d.ratio_at(0.0) < k0 && d.ratio_at(1.0) > k1);
+}
+
+/// The passing example passes every check, and its trimmer coverage is
+/// judged over every tolerance corner (1 nominal + 2^5 vertices).
+#[test]
+fn the_passing_example_passes_at_every_condition() {
+    let r = report("server.toml", &example("server-cabinet-airflow.toml"));
+    assert!(
+        r.passed,
+        "{:#?}",
+        r.checks.iter().filter(|c| !c.passed).collect::<Vec<_>>()
+    );
+    let cov = r
+        .checks
+        .iter()
+        .find(|c| c.id == "trimmer-coverage")
+        .unwrap();
+    assert!(cov.detail.contains("33 builds"), "{}", cov.detail);
+    let band = r.checks.iter().find(|c| c.id == "trip-band").unwrap();
+    let (v, l) = (band.value.unwrap(), band.limit.unwrap());
+    assert!(
+        band.margin.unwrap() >= 0.0 && (0.4..=1.8).contains(&v),
+        "{v} {l}"
+    );
+}
+
+/// A trimmer pinned at the setting the report prints (to 0.1 %) is judged
+/// against the band, not against exact equality with the target.
+#[test]
+fn a_pinned_trimmer_at_the_printed_setting_passes_when_the_band_holds() {
+    let text = example("server-cabinet-airflow.toml");
+    let first = report("server.toml", &text);
+    let pct = format!("{:.1} %", first.trip.trimmer_position_percent);
+    let pinned = text.replace(
+        "hysteresis = \"0.1 m/s\"",
+        &format!("hysteresis = \"0.1 m/s\"\ntrimmer_position = \"{pct}\""),
+    );
+    let r = report("pinned.toml", &pinned);
+    assert!(
+        r.passed,
+        "{:#?}",
+        r.checks.iter().filter(|c| !c.passed).collect::<Vec<_>>()
+    );
+    let u = r.trip.airflow_m_per_s.unwrap();
+    assert!((u - 1.0).abs() < 0.01 && u != 1.0, "{u}");
+    assert!(r.checks.iter().all(|c| c.id != "trip-on-target"));
+}
+
+/// With the trimmer at its top end the workshop detector is tripped at
+/// every airflow: a full JSON report, `null` trip airflow, exit 1.
+#[test]
+fn an_always_tripped_design_gives_a_full_json_report() {
+    let text = example("workshop-door-draught.toml").replace(
+        "hysteresis = \"0.05 m/s\"",
+        "hysteresis = \"0.05 m/s\"\ntrimmer_position = \"100 %\"",
+    );
+    let dir = std::env::temp_dir().join("draftwire-verdict-always");
+    std::fs::create_dir_all(&dir).unwrap();
+    let f = dir.join("always.toml");
+    std::fs::write(&f, text).unwrap();
+    let out = draftwire()
+        .args(["size", "--format", "json"])
+        .arg(&f)
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    let v = json_of(&out);
+    assert!(v["trip"]["airflow_m_per_s"].is_null());
+    assert!(!v["operating_points"].as_array().unwrap().is_empty());
+    assert_eq!(v["passed"], false);
+    let band = v["checks"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|c| c["id"] == "trip-band")
+        .unwrap();
+    assert_eq!(band["passed"], false);
+    assert!(band["value"].is_null());
+}
+
+fn ntc_design(series: &str, volts: &str) -> String {
+    format!(
+        r#"[ambient]
+nominal = "25 degC"
+[supply]
+input = "{volts}"
+[drive]
+kind = "series-resistor"
+rail = "input"
+series = "{series}"
+[detector]
+trip_airflow = "0.5 m/s"
+trip_on = "rising"
+hysteresis = "0.05 m/s"
+[element]
+[element.resistance]
+law = "beta"
+r0 = "10 kohm"
+beta = "3950 K"
+[element.cooling]
+law = "datasheet"
+dissipation = "1.5 mW/K"
+dissipation_moving = "3 mW/K"
+moving_airflow = "1 m/s"
+time_constant = "10 s"
+"#
+    )
+}
+
+fn run_json(name: &str, text: &str) -> (Option<i32>, serde_json::Value) {
+    let dir = std::env::temp_dir().join(format!("draftwire-verdict-{name}"));
+    std::fs::create_dir_all(&dir).unwrap();
+    let f = dir.join(format!("{name}.toml"));
+    std::fs::write(&f, text).unwrap();
+    let out = draftwire()
+        .args(["size", "--format", "json"])
+        .arg(&f)
+        .output()
+        .unwrap();
+    (out.status.code(), json_of(&out))
+}
+
+/// An NTC through 300 Ω from 20 V runs away in still air: 20²/(4·300) =
+/// 0.33 W can reach the element near R = 300 Ω (about 110 °C by the beta
+/// law), while 1.5 mW/K × 85 K = 0.13 W is all still air takes away (hand
+/// estimate). The report still comes, with the airflows that have a steady
+/// state, and fails `element-steady-state`.
+#[test]
+fn still_air_runaway_gives_a_full_json_report() {
+    let (code, v) = run_json("runaway", &ntc_design("300 ohm", "20 V"));
+    assert_eq!(code, Some(1));
+    let c = v["checks"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .find(|c| c["id"] == "element-steady-state")
+        .expect("a steady-state check");
+    assert_eq!(c["passed"], false);
+    assert!(c["detail"].as_str().unwrap().contains("still air"));
+    let labels: Vec<&str> = v["operating_points"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|p| p["label"].as_str().unwrap())
+        .collect();
+    assert!(
+        labels.contains(&"trip") && !labels.contains(&"still air"),
+        "{labels:?}"
+    );
+}
+
+/// A design with no steady state even at the trip airflow cannot be sized;
+/// it still prints a JSON report whose one failing check says why.
+#[test]
+fn an_unsizable_design_still_gives_a_json_report() {
+    let (code, v) = run_json("unsizable", &ntc_design("3000 ohm", "19 V"));
+    assert_eq!(code, Some(1));
+    let checks = v["checks"].as_array().unwrap();
+    assert_eq!(checks.len(), 1);
+    assert_eq!(checks[0]["id"], "design-sizable");
+    assert_eq!(checks[0]["passed"], false);
+    assert!(!v["cautions"].as_array().unwrap().is_empty());
+}
+
+/// `compare` exits 1 when a candidate fails a design check that `size`
+/// fails: the workshop design fails its band with its own element.
+#[test]
+fn compare_exits_1_when_a_candidate_fails_a_size_check() {
+    let out = draftwire()
+        .args(["compare", "--format", "json"])
+        .arg(example_path("workshop-door-draught.toml"))
+        .arg("--candidates")
+        .arg(example_path("candidates/element-candidates.toml"))
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(1));
+    let v = json_of(&out);
+    let own = &v["rows"][0];
+    assert_eq!(own["passed"], false);
+    assert!(own["failed_checks"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .any(|id| id == "trip-band"));
+}
+
+/// Hold-off with the full-range output-low level: the duct design's NPN
+/// base sees V_OL·R_BE/(R_B + R_BE) with V_OL = 0.7 V (class data sheets,
+/// full temperature range, at 4 mA), computed here from its own bill.
+#[test]
+fn hold_off_uses_the_full_range_output_low_level() {
+    let r = report("duct.toml", &example("duct-platinum-wire.toml"));
+    let ohm = |d: &str| {
+        r.values
+            .iter()
+            .find(|v| v.designator == d)
+            .unwrap()
+            .value_ohm
+            .unwrap()
+    };
+    let (rb, rbe) = (ohm("RB1"), ohm("RBE1"));
+    let c = r.checks.iter().find(|c| c.id == "q1-hold-off").unwrap();
+    let hand = 0.7 * rbe / (rb + rbe);
+    assert!(
+        (c.value.unwrap() - hand).abs() < 1e-12,
+        "{} vs {hand}",
+        c.value.unwrap()
+    );
+    // Limit 0.6 × V_BE(on) = 0.42 V (common practice, no source).
+    assert!((c.limit.unwrap() - 0.42).abs() < 1e-12);
+    assert_eq!(c.passed, hand <= 0.42);
+}
+
+/// Sink current includes the hysteresis feedback current and is held to
+/// 80 % of the limit: the workshop's direct LED, from its own bill, by
+/// hand: (5.25 − 0.7)/R_P + LED + (5.25 − 0.7)/(R_F + R_I).
+#[test]
+fn sink_check_includes_feedback_current_and_margin() {
+    let r = report("workshop.toml", &example("workshop-door-draught.toml"));
+    let ohm = |d: &str| {
+        r.values
+            .iter()
+            .find(|v| v.designator == d)
+            .unwrap()
+            .value_ohm
+            .unwrap()
+    };
+    let led = (5.25 - 1.8 - 0.7) / ohm("RL1");
+    let hand = (5.25 - 0.7) / ohm("RP1") + led + (5.25 - 0.7) / (ohm("RF1") + ohm("RI1"));
+    let c = r.checks.iter().find(|c| c.id == "comparator-sink").unwrap();
+    assert!(
+        (c.value.unwrap() - hand).abs() < 1e-9,
+        "{} vs {hand}",
+        c.value.unwrap()
+    );
+    // 80 % of the class's 4 mA (a stated 20 % design margin).
+    assert!((c.limit.unwrap() - 3.2e-3).abs() < 1e-15);
+}
