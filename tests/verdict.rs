@@ -287,3 +287,55 @@ fn sink_check_includes_feedback_current_and_margin() {
     // 80 % of the class's 4 mA (a stated 20 % design margin).
     assert!((c.limit.unwrap() - 3.2e-3).abs() < 1e-15);
 }
+
+/// A lamp whose measured cold resistance disagrees with its rating: the
+/// mismatch is a warning that speaks of the trip point, not an assumption.
+/// 12 V, 1.2 W gives R_hot = V²/P = 120 Ω (Ohm's law). Running at
+/// 2200–3000 K, tungsten's resistivity ratio to 22 °C is about 11.5–16.7
+/// (Forsythe & Worthing, Astrophys. J. 61 (1925): 92.04 µΩ·cm at 3000 K,
+/// about 63.5 interpolated at 2200 K, against about 5.5 near 295 K), so
+/// 7.2–10.4 Ω is expected cold (hand); 12 Ω lies about 15 % outside.
+#[test]
+fn a_lamp_mismatch_is_a_warning_about_the_trip_point() {
+    let text = example("cabinet-lamp-filament.toml").replace(
+        "cold_resistance = \"9.6 ohm\"",
+        "cold_resistance = \"12 ohm\"",
+    );
+    let d = parse_design("lamp.toml", &text).unwrap();
+    assert!(d.assumptions.iter().all(|a| !a.contains("% outside")));
+    let r = size(&d).unwrap();
+    assert!(
+        r.warnings
+            .iter()
+            .any(|w| w.contains("% outside") && w.contains("trip point")),
+        "{:#?}",
+        r.warnings
+    );
+    // The example as given agrees with its rating: no such warning.
+    let ok = report("lamp.toml", &example("cabinet-lamp-filament.toml"));
+    assert!(ok.warnings.iter().all(|w| !w.contains("% outside")));
+}
+
+/// Parts at 0.5 W or more continuously get a hot-part caution that names
+/// them with their dissipation: the duct example's regulator drops 12 V to
+/// 5 V for the element, so U2 is listed at the budget's own worst figure.
+#[test]
+fn hot_parts_get_a_caution_with_their_dissipation() {
+    let r = report("duct.toml", &example("duct-platinum-wire.toml"));
+    let c = r
+        .cautions
+        .iter()
+        .find(|c| c.starts_with("Hot parts"))
+        .expect("a hot-part caution");
+    let u2 = draftwire::quantity::format_engineering(r.supply.regulator_dissipation_w, "W", 3);
+    assert!(r.supply.regulator_dissipation_w >= 0.5);
+    assert!(c.contains(&format!("U2 {u2}")), "{c}");
+    // The workshop detector has no part at 0.5 W continuously (RS1 sees
+    // 430 mW only in the power-on surge): no such caution.
+    let w = report("workshop.toml", &example("workshop-door-draught.toml"));
+    assert!(
+        w.cautions.iter().all(|c| !c.starts_with("Hot parts")),
+        "{:#?}",
+        w.cautions
+    );
+}

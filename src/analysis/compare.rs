@@ -194,7 +194,8 @@ fn row(design: &Design, label: &str, element: &Element, tol: f64) -> CompareRow 
     out.sensitivity_v_per_m_per_s = Some(core.sensitivity_v_per_m_per_s);
     out.time_constant_s = Some(core.at_trip.time_constant_s);
     out.trip_drift_m_per_s_per_k = trip_drift(&d, &core);
-    let mut warnings = element.range_warnings(s.temperature_k, 0.0, &core.env);
+    let mut warnings = element.plausibility_warnings().to_vec();
+    warnings.extend(element.range_warnings(s.temperature_k, 0.0, &core.env));
     for w in element.range_warnings(
         core.at_trip.temperature_k,
         core.at_trip.airflow_m_per_s,

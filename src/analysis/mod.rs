@@ -32,13 +32,17 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
         design.element.resistance_law().name(),
         design.element.cooling_law().name()
     );
-    let mut warnings: Vec<String> = Vec::new();
+    let mut warnings: Vec<String> = design.element.plausibility_warnings().to_vec();
     for (label, p) in &core.table {
         for w in design
             .element
             .range_warnings(p.temperature_k, p.airflow_m_per_s, &core.env)
         {
-            let line = format!("{label}: {w}");
+            let line = if label == "trip" {
+                format!("{label}: {w} — the trip point itself rests on this extrapolation: treat it as uncertain and calibrate it on the bench")
+            } else {
+                format!("{label}: {w}")
+            };
             if !warnings.contains(&line) {
                 warnings.push(line);
             }

@@ -1040,6 +1040,13 @@ pub fn circuit_section(
     }
 
     // ---- cautions -----------------------------------------------------
+    s.cautions.extend(hot_part_caution(
+        design,
+        core,
+        values,
+        &s.values,
+        s.supply.regulator_dissipation_w,
+    ));
     if let Some(o) = out {
         if stage == StageKind::Direct && vl_hi > cmp.supply_max_v {
             s.cautions.push(format!(
@@ -1061,6 +1068,68 @@ pub fn circuit_section(
         }
     }
     s
+}
+
+/// Continuous dissipation from which a part gets a hot-part caution: 0.5 W
+/// (a through-hole part at that power runs hot enough to burn a finger and
+/// brown a board; common practice, no source).
+pub const HOT_PART_W: f64 = 0.5;
+
+/// The parts that dissipate [`HOT_PART_W`] or more continuously (in
+/// operation at the highest rail, not the power-on surge): the element
+/// series resistor and the element itself, solved again at every airflow
+/// of the table; the regulator; every other rated part at its worst
+/// steady dissipation.
+fn hot_part_caution(
+    design: &Design,
+    core: &SizedCore,
+    core_values: &[ValueRow],
+    stage_values: &[ValueRow],
+    regulator_w: f64,
+) -> Option<String> {
+    let mut hot: Vec<(String, f64)> = Vec::new();
+    if let (Some(rail), Drive::SeriesResistor { series_ohm, .. }) =
+        (element_rail(design), core.drive)
+    {
+        let v = design.supply.rail_range_v(rail).1;
+        let drive = drive_with(&design.drive, series_ohm, v);
+        let (mut p_rs, mut p_el) = (0.0_f64, 0.0_f64);
+        for (_, p) in &core.table {
+            if let Ok(q) = operating_point(&core.element, &drive, &core.env, p.airflow_m_per_s) {
+                p_rs = p_rs.max(q.current_a * q.current_a * series_ohm);
+                p_el = p_el.max(q.power_w);
+            }
+        }
+        hot.push(("RS1".into(), p_rs));
+        hot.push(("the element".into(), p_el));
+    } else {
+        hot.push(("the element".into(), core.still_air.power_w));
+    }
+    hot.push(("U2".into(), regulator_w));
+    for v in core_values.iter().chain(stage_values) {
+        if v.designator != "RS1" {
+            if let Some(w) = v.dissipation_w {
+                hot.push((v.designator.clone(), w));
+            }
+        }
+    }
+    let list: Vec<String> = hot
+        .iter()
+        .filter(|(_, w)| *w >= HOT_PART_W)
+        .map(|(d, w)| format!("{d} {}", eng(*w, "W")))
+        .collect();
+    let rs_hot = list.iter().any(|l| l.starts_with("RS1 "));
+    (!list.is_empty()).then(|| {
+        format!(
+            "Hot parts: {} dissipated continuously. Mount them with air around them (a heat sink for a regulator), clear of wiring and plastics, and do not touch them while powered.{}",
+            list.join(", "),
+            if rs_hot {
+                " RS1 burns the rail's excess over the element: a lower element rail would run it cooler."
+            } else {
+                ""
+            }
+        )
+    })
 }
 
 /// Rate each resistor: choose a standard power rating (or judge the given

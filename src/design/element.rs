@@ -156,6 +156,7 @@ fn material_of(rd: &Reader<'_>, e: &raw::RawElement, p: &str) -> R<Option<Materi
 fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Element, f64)> {
     let mut material = material_of(rd, e, p)?;
     let mut notes: Vec<String> = Vec::new();
+    let mut plausibility: Vec<String> = Vec::new();
     // Heat capacity derived from the cooling data or the lamp, if any:
     // (value J/K, how it was found).
     let mut derived_c: Option<(f64, String)> = None;
@@ -186,9 +187,10 @@ fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Ele
                     ));
                 }
             }
-            let (law, cooling, c, lamp_notes) = lamp(rd, l, p)?;
+            let (law, cooling, c, lamp_notes, lamp_warnings) = lamp(rd, l, p)?;
             material = Some(Material::Tungsten);
             notes.extend(lamp_notes);
+            plausibility.extend(lamp_warnings);
             derived_c = Some(c);
             (law, Some(cooling))
         }
@@ -286,7 +288,8 @@ fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Ele
                 er.to_string(),
             )
         })?
-        .with_notes(notes);
+        .with_notes(notes)
+        .with_plausibility_warnings(plausibility);
     Ok((element, tolerance))
 }
 
@@ -856,7 +859,13 @@ fn cooling(
 
 /// What a lamp gives: its resistance law, its cooling, its heat capacity
 /// (value, how found) and notes for the report.
-type LampParts = (ResistanceLaw, CoolingLaw, (f64, String), Vec<String>);
+type LampParts = (
+    ResistanceLaw,
+    CoolingLaw,
+    (f64, String),
+    Vec<String>,
+    Vec<String>,
+);
 
 /// A lamp filament from its rating: tungsten resistance law referred to the
 /// measured cold point, straight-wire geometry cooling of the inferred wire
@@ -896,22 +905,25 @@ fn lamp(rd: &mut Reader<'_>, l: &raw::RawLamp, p: &str) -> R<LampParts> {
     )
     .map_err(|er| rd.err(here, &pre, er.to_string()))?;
     let pl = &fil.plausibility;
+    let range = format!(
+        "the {:.4}–{:.4} ohm expected for a lamp running at {:.0}–{:.0} K",
+        pl.expected_cold_resistance_range_ohm.0,
+        pl.expected_cold_resistance_range_ohm.1,
+        pl.typical_operating_range_k.0,
+        pl.typical_operating_range_k.1
+    );
     let agreement = if pl.cold_resistance_in_range {
-        format!(
-            "the measured cold resistance {:.4} ohm lies inside the {:.4}–{:.4} ohm expected for a lamp running at {:.0}–{:.0} K",
-            r, pl.expected_cold_resistance_range_ohm.0, pl.expected_cold_resistance_range_ohm.1,
-            pl.typical_operating_range_k.0, pl.typical_operating_range_k.1
-        )
+        format!("the measured cold resistance {r:.4} ohm lies inside {range}")
     } else {
-        format!(
-            "the measured cold resistance {:.4} ohm lies {:+.1} % outside the {:.4}–{:.4} ohm expected for a lamp running at {:.0}–{:.0} K: check the measurement (lead resistance, meter zero) and the rating",
-            r,
-            pl.cold_resistance_deviation * 100.0,
-            pl.expected_cold_resistance_range_ohm.0,
-            pl.expected_cold_resistance_range_ohm.1,
-            pl.typical_operating_range_k.0,
-            pl.typical_operating_range_k.1
-        )
+        format!("the measured cold resistance {r:.4} ohm lies outside {range} (see the warnings)")
+    };
+    let warnings = if pl.cold_resistance_in_range {
+        Vec::new()
+    } else {
+        vec![format!(
+            "lamp filament: the measured cold resistance {r:.4} ohm lies {:+.1} % outside {range}, so the rating and the measurement disagree. The inferred wire (diameter, length, hot temperature) rests on both, and with it the cooling and the trip airflow: treat the trip point as uncertain by at least that much, check the measurement (lead resistance, meter zero) and the rating, and calibrate the trip point on the bench",
+            pl.cold_resistance_deviation * 100.0
+        )]
     };
     let notes = vec![
         format!(
@@ -937,6 +949,7 @@ fn lamp(rd: &mut Reader<'_>, l: &raw::RawLamp, p: &str) -> R<LampParts> {
             "ρ·c·volume of the inferred straight tungsten wire".into(),
         ),
         notes,
+        warnings,
     ))
 }
 

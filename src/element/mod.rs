@@ -57,6 +57,7 @@ pub struct Element {
     heat_capacity_j_per_k: f64,
     max_temperature_k: Option<f64>,
     notes: Vec<String>,
+    plausibility: Vec<String>,
 }
 
 impl Element {
@@ -87,6 +88,7 @@ impl Element {
             heat_capacity_j_per_k,
             max_temperature_k,
             notes: Vec::new(),
+            plausibility: Vec::new(),
         })
     }
     /// The resistance law.
@@ -118,6 +120,17 @@ impl Element {
     /// agrees with typical lamps, and what coiling changes), for the report.
     pub fn notes(&self) -> &[String] {
         &self.notes
+    }
+    /// Where the element's own data disagree with what they imply (e.g. a
+    /// lamp's measured cold resistance against its rating), with what that
+    /// means for the trip point: warnings for the report.
+    pub fn plausibility_warnings(&self) -> &[String] {
+        &self.plausibility
+    }
+    /// This element with plausibility warnings appended.
+    pub fn with_plausibility_warnings(mut self, w: impl IntoIterator<Item = String>) -> Self {
+        self.plausibility.extend(w);
+        self
     }
     /// This element with notes appended.
     pub fn with_notes(mut self, notes: impl IntoIterator<Item = String>) -> Self {
