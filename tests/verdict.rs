@@ -339,3 +339,76 @@ fn hot_parts_get_a_caution_with_their_dissipation() {
         w.cautions
     );
 }
+
+/// A bistable NTC: 47 kΩ at 25 °C, β = 4500 K, through a 1 kΩ (±5 %)
+/// series resistor from 24 V, 1.5 mW/K still-air dissipation constant. The
+/// balance G·(T − Ta) = V²·R/(Rs + R)² (beta model, Steinhart & Hart 1968
+/// form; thermistor data-sheet dissipation constant, MIL-PRF-23648) has a
+/// cold stable root near 41 °C, an unstable one near 72 °C and a hot stable
+/// one near 120 °C (found here by an independent scan). The design fails
+/// `no-hot-latch`, and RS1 is rated in the hot state: P = I²·Rs at the hot
+/// root, the largest over the drive's tolerance ends.
+#[test]
+fn a_bistable_ntc_can_latch_hot_and_rs1_is_rated_hot() {
+    let text = r#"[ambient]
+nominal = "25 degC"
+[supply]
+input = "24 V"
+[drive]
+kind = "series-resistor"
+rail = "input"
+series = "1 kohm"
+[detector]
+trip_airflow = "0.5 m/s"
+trip_on = "rising"
+hysteresis = "0.05 m/s"
+[element]
+[element.resistance]
+law = "beta"
+r0 = "47 kohm"
+beta = "4500 K"
+[element.cooling]
+law = "datasheet"
+dissipation = "1.5 mW/K"
+dissipation_moving = "3 mW/K"
+moving_airflow = "1 m/s"
+time_constant = "10 s"
+"#;
+    let r = report("bistable.toml", text);
+    let latch = r.checks.iter().find(|c| c.id == "no-hot-latch").unwrap();
+    assert!(!latch.passed, "{}", latch.detail);
+    // Independent: the hot root of the still-air balance by bisection.
+    let ta = 298.15;
+    let r_of = |t: f64| 47e3 * (4500.0 * (1.0 / t - 1.0 / ta)).exp();
+    let hot_power = |rs: f64| {
+        let f = |t: f64| {
+            let rt = r_of(t);
+            1.5e-3 * (t - ta) - 24.0 * 24.0 * rt / ((rs + rt) * (rs + rt))
+        };
+        // Hot stable root: f crosses from − to + between 100 and 150 °C.
+        let (mut lo, mut hi) = (373.15, 423.15);
+        assert!(f(lo) < 0.0 && f(hi) > 0.0);
+        for _ in 0..200 {
+            let mid = 0.5 * (lo + hi);
+            if f(mid) < 0.0 {
+                lo = mid
+            } else {
+                hi = mid
+            }
+        }
+        let i = 24.0 / (rs + r_of(lo));
+        i * i * rs
+    };
+    let want = [950.0, 1000.0, 1050.0]
+        .map(hot_power)
+        .into_iter()
+        .fold(0.0, f64::max);
+    let rs1 = r
+        .checks
+        .iter()
+        .find(|c| c.id == "power-rating-rs1")
+        .unwrap();
+    assert!(rs1.condition.contains("hot state"), "{}", rs1.condition);
+    let got = rs1.value.unwrap();
+    assert!((got - want).abs() / want < 1e-6, "{got} vs {want}");
+}
