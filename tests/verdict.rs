@@ -412,3 +412,51 @@ time_constant = "10 s"
     let got = rs1.value.unwrap();
     assert!((got - want).abs() / want < 1e-6, "{got} vs {want}");
 }
+
+/// A `[[candidate]]` may carry its own overheat (for the design's `auto`
+/// drive) or a whole drive table; the comparison runs it there and says so.
+#[test]
+fn a_candidate_may_carry_its_own_drive_or_overheat() {
+    use draftwire::analysis::compare::compare;
+    use draftwire::design::element::parse_candidates;
+    let design = parse_design("g.toml", &example("greenhouse-fan-alarm.toml")).unwrap();
+    let text = example("candidates/element-candidates.toml");
+    let cands = parse_candidates("c.toml", &text, &design).unwrap();
+    let cmp = compare(&design, &cands).unwrap();
+    let row = |label: &str| cmp.rows.iter().find(|r| r.label == label).unwrap();
+    // The NTC bead runs at its own 30 K rise (within the series resistor's
+    // E24 snapping), not the design's 150 K.
+    let ntc = row("NTC bead 1k");
+    assert!(ntc.drive.ends_with("(its own)"), "{}", ntc.drive);
+    let rise = ntc.still_air_rise_k.unwrap();
+    assert!((rise - 30.0).abs() < 5.0, "{rise}");
+    // The Pt100 chip brings a constant-current drive of its own.
+    assert!(row("Pt100 chip").drive.starts_with("current"));
+    // A candidate without its own keeps the design's drive.
+    assert!(!row("nickel wire 25 um").drive.contains("its own"));
+    // An overheat of its own needs the design's drive to be "auto".
+    let fixed = example("workshop-door-draught.toml")
+        .replace("series = \"auto\"", "series = \"56 ohm\"")
+        .replace("overheat_rise = \"50 K\"\n", "");
+    let fixed = parse_design("w.toml", &fixed).unwrap();
+    let err = parse_candidates("c.toml", &text, &fixed)
+        .unwrap_err()
+        .to_string();
+    assert!(
+        err.contains("candidate[1]") && err.contains("\"auto\""),
+        "{err}"
+    );
+}
+
+/// A design's own `[element]` takes no drive or overheat: that belongs in
+/// `[drive]`; the error names the key's place.
+#[test]
+fn a_design_element_rejects_a_drive_of_its_own() {
+    let text = example("workshop-door-draught.toml").replace(
+        "tolerance = \"5 %\"\n\n[element.resistance]",
+        "tolerance = \"5 %\"\noverheat_rise = \"40 K\"\n\n[element.resistance]",
+    );
+    let err = parse_design("w.toml", &text).unwrap_err().to_string();
+    assert!(err.contains("belongs in [drive]"), "{err}");
+    assert!(err.contains("w.toml:"), "{err}");
+}

@@ -11,6 +11,7 @@
 //! the hottest ambient.
 
 use super::size::{drive_with, size_core, SizedCore};
+use crate::design::element::Candidate;
 use crate::design::model::Design;
 use crate::element::{Element, Environment};
 use crate::solve::{airflow_for_sense, operating_point};
@@ -95,17 +96,11 @@ const C0: f64 = 273.15;
 /// Compare `candidates` (label, element, resistance tolerance as a
 /// fraction) in `design`'s drive and detector. A candidate that cannot be
 /// sized or solved gets a row with `error` set; only an empty list fails.
-pub fn compare(
-    design: &Design,
-    candidates: &[(String, Element, f64)],
-) -> Result<Comparison, CompareError> {
+pub fn compare(design: &Design, candidates: &[Candidate]) -> Result<Comparison, CompareError> {
     if candidates.is_empty() {
         return Err(CompareError::NoCandidates);
     }
-    let rows = candidates
-        .iter()
-        .map(|(label, element, tol)| row(design, label, element, *tol))
-        .collect();
+    let rows = candidates.iter().map(|c| row(design, c)).collect();
     Ok(Comparison {
         title: design.title.clone(),
         target_trip_airflow_m_per_s: design.detector.trip_airflow_m_per_s,
@@ -145,11 +140,17 @@ fn empty_row(label: &str, element: &Element, tol: f64) -> CompareRow {
     }
 }
 
-fn row(design: &Design, label: &str, element: &Element, tol: f64) -> CompareRow {
-    let mut out = empty_row(label, element, tol);
+fn row(design: &Design, c: &Candidate) -> CompareRow {
+    let element = &c.element;
+    let mut out = empty_row(&c.label, element, c.tolerance);
     let mut d = design.clone();
     d.element = element.clone();
-    d.element_tolerance = tol;
+    d.element_tolerance = c.tolerance;
+    if let Some(own) = c.drive {
+        d.drive = own.drive;
+        d.overheat = own.overheat;
+        d.drive_tolerance = own.tolerance;
+    }
     let core = match size_core(&d) {
         Ok(c) => c,
         Err(e) => {
@@ -165,6 +166,9 @@ fn row(design: &Design, label: &str, element: &Element, tol: f64) -> CompareRow 
         }
         crate::drive::Drive::ConstantCurrent { current_a } => format!("current {current_a} A"),
     };
+    if c.drive.is_some() {
+        out.drive.push_str(" (its own)");
+    }
     let s = &core.still_air;
     out.still_air_temperature_c = Some(s.temperature_k - C0);
     out.still_air_rise_k = Some(s.rise_k());
@@ -273,7 +277,13 @@ mod tests {
         let d = parse_design("g.toml", DESIGN).unwrap();
         let cmp = compare(
             &d,
-            &[("own".into(), d.element.clone(), d.element_tolerance)],
+            &[Candidate {
+                label: "own".into(),
+                element: d.element.clone(),
+                tolerance: d.element_tolerance,
+                drive: None,
+                assumptions: Vec::new(),
+            }],
         )
         .unwrap();
         let core = size_core(&d).unwrap();

@@ -9,7 +9,7 @@
 
 use super::{emit, read, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
 use draftwire::analysis::compare::compare;
-use draftwire::design::element::parse_candidates;
+use draftwire::design::element::{parse_candidates, Candidate};
 use draftwire::design::parse_design;
 use draftwire::render;
 use std::path::{Path, PathBuf};
@@ -38,7 +38,13 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
         .element_name
         .clone()
         .unwrap_or_else(|| design.title.clone());
-    let mut list = vec![(own_label, design.element.clone(), design.element_tolerance)];
+    let mut list = vec![Candidate {
+        label: own_label,
+        element: design.element.clone(),
+        tolerance: design.element_tolerance,
+        drive: None,
+        assumptions: Vec::new(),
+    }];
     for path in candidate_files {
         let text = match read(path) {
             Ok(s) => s,
@@ -47,8 +53,8 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
                 return ExitCode::from(EXIT_INPUT);
             }
         };
-        match parse_candidates(&path.display().to_string(), &text) {
-            Ok(cs) => list.extend(cs.into_iter().map(|c| (c.label, c.element, c.tolerance))),
+        match parse_candidates(&path.display().to_string(), &text, &design) {
+            Ok(cs) => list.extend(cs),
             Err(d) => {
                 eprintln!("error: {d}");
                 return ExitCode::from(EXIT_INPUT);

@@ -190,134 +190,11 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     let (element, element_tolerance) = super::element::build_element(rd, &raw.element)?;
 
     // Drive.
-    let d = &raw.drive;
-    let kind = rd.word(
-        &d.kind,
-        "drive.kind",
-        &["series-resistor", "constant-current"],
-    )?;
-    let drive = if kind == "series-resistor" {
-        let rail = match &d.rail {
-            Some(w) => rd.rail(w, "drive.rail", has_reg)?,
-            None => {
-                let r = if has_reg {
-                    Rail::Regulated
-                } else {
-                    Rail::Input
-                };
-                rd.assumptions.push(format!(
-                    "drive.rail not given: the element is fed from the {} rail",
-                    r.name()
-                ));
-                r
-            }
-        };
-        let series = rd.required(
-            &d.series,
-            "drive.series",
-            Some(d.kind.span()),
-            "the series resistor, e.g. series = \"47 ohm\" or series = \"auto\"",
-        )?;
-        if let Some(c) = &d.current {
-            return Err(rd.err(
-                Some(c.span()),
-                "drive.current",
-                "a series-resistor drive takes `series`, not `current`".into(),
-            ));
-        }
-        DriveSpec::SeriesResistor {
-            rail,
-            series_ohm: rd.sizable(series, "drive.series", Dimension::Resistance)?,
-        }
-    } else {
-        let current = rd.required(
-            &d.current,
-            "drive.current",
-            Some(d.kind.span()),
-            "the drive current, e.g. current = \"50 mA\" or current = \"auto\"",
-        )?;
-        if let Some(c) = &d.series {
-            return Err(rd.err(
-                Some(c.span()),
-                "drive.series",
-                "a constant-current drive takes `current`, not `series`".into(),
-            ));
-        }
-        if let Some(c) = &d.rail {
-            return Err(rd.err(
-                Some(c.span()),
-                "drive.rail",
-                "a constant-current drive takes no rail".into(),
-            ));
-        }
-        DriveSpec::ConstantCurrent {
-            current_a: rd.sizable(current, "drive.current", Dimension::Current)?,
-        }
-    };
-    let sized = matches!(
+    let DriveChoice {
         drive,
-        DriveSpec::SeriesResistor {
-            series_ohm: Sizable::Auto,
-            ..
-        } | DriveSpec::ConstantCurrent {
-            current_a: Sizable::Auto
-        }
-    );
-    let overheat = match (&d.overheat_rise, &d.overheat_ratio) {
-        (Some(v), None) => Some(OverheatTarget::Rise(rd.positive(
-            v,
-            "drive.overheat_rise",
-            Dimension::TemperatureDifference,
-        )?)),
-        (None, Some(v)) => {
-            let x = rd.quantity(v, "drive.overheat_ratio", Dimension::Fraction)?;
-            if !(x > 0.0 && x < 20.0) {
-                return Err(rd.err(
-                    Some(v.span()),
-                    "drive.overheat_ratio",
-                    format!("expected a ratio above 0 and below 20, found {x}"),
-                ));
-            }
-            Some(OverheatTarget::Ratio(x))
-        }
-        (Some(_), Some(v)) => {
-            return Err(rd.err(
-                Some(v.span()),
-                "drive.overheat_ratio",
-                "give either overheat_rise or overheat_ratio, not both".into(),
-            ))
-        }
-        (None, None) => None,
-    };
-    if sized && overheat.is_none() {
-        return Err(rd.err(
-            Some(d.kind.span()),
-            "drive",
-            "the drive is \"auto\", so it needs a wanted still-air overheat: overheat_rise = \"80 K\" or overheat_ratio = 0.3".into(),
-        ));
-    }
-    if !sized {
-        if let Some(v) = d.overheat_rise.as_ref().or(d.overheat_ratio.as_ref()) {
-            return Err(rd.err(
-                Some(v.span()),
-                "drive",
-                "an overheat target is only used when the drive is \"auto\"".into(),
-            ));
-        }
-    }
-    let default_tol = match drive {
-        DriveSpec::SeriesResistor { .. } => e_series.tolerance(),
-        DriveSpec::ConstantCurrent { .. } => 0.0,
-    };
-    let drive_tolerance = rd.or_default(
-        &d.tolerance,
-        default_tol,
-        &format!(
-            "drive.tolerance not given: ±{} % assumed",
-            default_tol * 100.0
-        ),
-        |r, v| r.fraction_in(v, "drive.tolerance", 0.0, 0.5),
-    )?;
+        overheat,
+        tolerance: drive_tolerance,
+    } = build_drive(rd, &raw.drive, "drive", has_reg, e_series)?;
 
     // Detector.
     let t = &raw.detector;
@@ -512,6 +389,149 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         output,
         ratings,
         assumptions: std::mem::take(&mut rd.assumptions),
+    })
+}
+
+/// Read a drive table (the design's `[drive]` or a candidate's own), with
+/// field names under `p`.
+pub(crate) fn build_drive(
+    rd: &mut Reader<'_>,
+    d: &raw::RawDrive,
+    p: &str,
+    has_reg: bool,
+    e_series: ESeries,
+) -> R<DriveChoice> {
+    let kind = rd.word(
+        &d.kind,
+        &format!("{p}.kind"),
+        &["series-resistor", "constant-current"],
+    )?;
+    let drive = if kind == "series-resistor" {
+        let rail = match &d.rail {
+            Some(w) => rd.rail(w, &format!("{p}.rail"), has_reg)?,
+            None => {
+                let r = if has_reg {
+                    Rail::Regulated
+                } else {
+                    Rail::Input
+                };
+                rd.assumptions.push(format!(
+                    "{p}.rail not given: the element is fed from the {} rail",
+                    r.name()
+                ));
+                r
+            }
+        };
+        let series = rd.required(
+            &d.series,
+            &format!("{p}.series"),
+            Some(d.kind.span()),
+            "the series resistor, e.g. series = \"47 ohm\" or series = \"auto\"",
+        )?;
+        if let Some(c) = &d.current {
+            return Err(rd.err(
+                Some(c.span()),
+                &format!("{p}.current"),
+                "a series-resistor drive takes `series`, not `current`".into(),
+            ));
+        }
+        DriveSpec::SeriesResistor {
+            rail,
+            series_ohm: rd.sizable(series, &format!("{p}.series"), Dimension::Resistance)?,
+        }
+    } else {
+        let current = rd.required(
+            &d.current,
+            &format!("{p}.current"),
+            Some(d.kind.span()),
+            "the drive current, e.g. current = \"50 mA\" or current = \"auto\"",
+        )?;
+        if let Some(c) = &d.series {
+            return Err(rd.err(
+                Some(c.span()),
+                &format!("{p}.series"),
+                "a constant-current drive takes `current`, not `series`".into(),
+            ));
+        }
+        if let Some(c) = &d.rail {
+            return Err(rd.err(
+                Some(c.span()),
+                &format!("{p}.rail"),
+                "a constant-current drive takes no rail".into(),
+            ));
+        }
+        DriveSpec::ConstantCurrent {
+            current_a: rd.sizable(current, &format!("{p}.current"), Dimension::Current)?,
+        }
+    };
+    let sized = matches!(
+        drive,
+        DriveSpec::SeriesResistor {
+            series_ohm: Sizable::Auto,
+            ..
+        } | DriveSpec::ConstantCurrent {
+            current_a: Sizable::Auto
+        }
+    );
+    let overheat = match (&d.overheat_rise, &d.overheat_ratio) {
+        (Some(v), None) => Some(OverheatTarget::Rise(rd.positive(
+            v,
+            &format!("{p}.overheat_rise"),
+            Dimension::TemperatureDifference,
+        )?)),
+        (None, Some(v)) => {
+            let x = rd.quantity(v, &format!("{p}.overheat_ratio"), Dimension::Fraction)?;
+            if !(x > 0.0 && x < 20.0) {
+                return Err(rd.err(
+                    Some(v.span()),
+                    &format!("{p}.overheat_ratio"),
+                    format!("expected a ratio above 0 and below 20, found {x}"),
+                ));
+            }
+            Some(OverheatTarget::Ratio(x))
+        }
+        (Some(_), Some(v)) => {
+            return Err(rd.err(
+                Some(v.span()),
+                &format!("{p}.overheat_ratio"),
+                "give either overheat_rise or overheat_ratio, not both".into(),
+            ))
+        }
+        (None, None) => None,
+    };
+    if sized && overheat.is_none() {
+        return Err(rd.err(
+            Some(d.kind.span()),
+            "drive",
+            "the drive is \"auto\", so it needs a wanted still-air overheat: overheat_rise = \"80 K\" or overheat_ratio = 0.3".into(),
+        ));
+    }
+    if !sized {
+        if let Some(v) = d.overheat_rise.as_ref().or(d.overheat_ratio.as_ref()) {
+            return Err(rd.err(
+                Some(v.span()),
+                p,
+                "an overheat target is only used when the drive is \"auto\"".into(),
+            ));
+        }
+    }
+    let default_tol = match drive {
+        DriveSpec::SeriesResistor { .. } => e_series.tolerance(),
+        DriveSpec::ConstantCurrent { .. } => 0.0,
+    };
+    let drive_tolerance = rd.or_default(
+        &d.tolerance,
+        default_tol,
+        &format!(
+            "{p}.tolerance not given: ±{} % assumed",
+            default_tol * 100.0
+        ),
+        |r, v| r.fraction_in(v, &format!("{p}.tolerance"), 0.0, 0.5),
+    )?;
+    Ok(DriveChoice {
+        drive,
+        overheat,
+        tolerance: drive_tolerance,
     })
 }
 

@@ -28,6 +28,7 @@
 //!   `cold_temperature` (default 20 °C).
 
 use super::diagnostic::Diagnostic;
+use super::model::{Design, DriveChoice, DriveSpec, OverheatTarget, Sizable};
 use super::raw::{self, Value};
 use super::reader::{Reader, R};
 use crate::element::{
@@ -69,6 +70,20 @@ pub(crate) fn build_element(rd: &mut Reader<'_>, e: &raw::RawElement) -> R<(Elem
                 .into(),
         ));
     }
+    let stray = e
+        .overheat_rise
+        .as_ref()
+        .or(e.overheat_ratio.as_ref())
+        .map(|v| v.span())
+        .or(e.drive.as_ref().map(|d| d.kind.span()));
+    if let Some(span) = stray {
+        return Err(rd.err(
+            Some(span),
+            "element",
+            "a drive or an overheat belongs in [drive]; only a [[candidate]] of a candidates file carries its own"
+                .into(),
+        ));
+    }
     build_element_at(rd, e, "element")
 }
 
@@ -81,28 +96,114 @@ pub struct Candidate {
     pub element: Element,
     /// Its resistance tolerance (fraction).
     pub tolerance: f64,
+    /// Its own drive (with its overheat and tolerance), when it carries
+    /// one; otherwise it runs in the design's drive.
+    pub drive: Option<DriveChoice>,
     /// Defaults taken while reading it.
     pub assumptions: Vec<String>,
+}
+
+/// A candidate's own drive: a `[candidate.drive]` table, or an overheat
+/// (`overheat_rise` / `overheat_ratio`) for the design's `auto` drive.
+fn candidate_drive(
+    rd: &mut Reader<'_>,
+    c: &raw::RawElement,
+    p: &str,
+    design: &Design,
+) -> R<Option<DriveChoice>> {
+    let has_reg = design.supply.regulator.is_some();
+    if let Some(d) = &c.drive {
+        if let Some(v) = c.overheat_rise.as_ref().or(c.overheat_ratio.as_ref()) {
+            return Err(rd.err(
+                Some(v.span()),
+                p,
+                format!(
+                    "give the overheat inside [{p}.drive] when the candidate has its own drive"
+                ),
+            ));
+        }
+        return super::build::build_drive(rd, d, &format!("{p}.drive"), has_reg, design.e_series)
+            .map(Some);
+    }
+    let (rise, ratio) = (&c.overheat_rise, &c.overheat_ratio);
+    let overheat = match (rise, ratio) {
+        (None, None) => return Ok(None),
+        (Some(v), None) => OverheatTarget::Rise(rd.positive(
+            v,
+            &format!("{p}.overheat_rise"),
+            Dimension::TemperatureDifference,
+        )?),
+        (None, Some(v)) => {
+            let x = rd.quantity(v, &format!("{p}.overheat_ratio"), Dimension::Fraction)?;
+            if !(x > 0.0 && x < 20.0) {
+                return Err(rd.err(
+                    Some(v.span()),
+                    &format!("{p}.overheat_ratio"),
+                    format!("expected a ratio above 0 and below 20, found {x}"),
+                ));
+            }
+            OverheatTarget::Ratio(x)
+        }
+        (Some(_), Some(v)) => {
+            return Err(rd.err(
+                Some(v.span()),
+                &format!("{p}.overheat_ratio"),
+                "give either overheat_rise or overheat_ratio, not both".into(),
+            ))
+        }
+    };
+    let auto = matches!(
+        design.drive,
+        DriveSpec::SeriesResistor {
+            series_ohm: Sizable::Auto,
+            ..
+        } | DriveSpec::ConstantCurrent {
+            current_a: Sizable::Auto
+        }
+    );
+    if !auto {
+        let v = rise.as_ref().or(ratio.as_ref()).map(|v| v.span());
+        return Err(rd.err(
+            v,
+            p,
+            "a candidate's own overheat needs the design's drive to be \"auto\" (or give the candidate a whole [candidate.drive] table)".into(),
+        ));
+    }
+    Ok(Some(DriveChoice {
+        drive: design.drive,
+        overheat: Some(overheat),
+        tolerance: design.drive_tolerance,
+    }))
 }
 
 /// Read the candidate elements in `source`: either `[[candidate]]` tables
 /// (each with the keys of `[element]` plus a `label`) or, when the file has
 /// no `candidate` key, a whole design file whose `[element]` is the one
 /// candidate (labelled by its `name`, else the design's title).
-pub fn parse_candidates(file: &str, source: &str) -> Result<Vec<Candidate>, Box<Diagnostic>> {
+///
+/// `design` is the design the candidates are compared in: a candidate's own
+/// drive is read against its supply rails and E-series.
+pub fn parse_candidates(
+    file: &str,
+    source: &str,
+    design: &Design,
+) -> Result<Vec<Candidate>, Box<Diagnostic>> {
     let toml_err = |e: toml::de::Error| Box::new(super::reader::toml_error(file, source, &e));
     let table: toml::Table = toml::from_str(source).map_err(toml_err)?;
     if !table.contains_key("candidate") {
-        let design = super::parse_design(file, source)?;
-        let label = design
+        // A whole design file: its element runs in the compared design's
+        // drive, like every candidate without a drive of its own.
+        let other = super::parse_design(file, source)?;
+        let label = other
             .element_name
             .clone()
-            .unwrap_or_else(|| design.title.clone());
+            .unwrap_or_else(|| other.title.clone());
         return Ok(vec![Candidate {
             label,
-            element: design.element,
-            tolerance: design.element_tolerance,
-            assumptions: design.assumptions,
+            element: other.element,
+            tolerance: other.element_tolerance,
+            drive: None,
+            assumptions: other.assumptions,
         }]);
     }
     let raw: raw::RawCandidates = toml::from_str(source).map_err(toml_err)?;
@@ -130,10 +231,12 @@ pub fn parse_candidates(file: &str, source: &str) -> Result<Vec<Candidate>, Box<
             }
         };
         let (element, tolerance) = build_element_at(&mut rd, c, &prefix)?;
+        let drive = candidate_drive(&mut rd, c, &prefix, design)?;
         out.push(Candidate {
             label,
             element,
             tolerance,
+            drive,
             assumptions: rd.assumptions,
         });
     }

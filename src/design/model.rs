@@ -78,6 +78,18 @@ pub enum DriveSpec {
     },
 }
 
+/// A drive as read from a drive table: kind and value, the wanted
+/// overheat when it is sized, and its tolerance.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct DriveChoice {
+    /// The drive.
+    pub drive: DriveSpec,
+    /// Wanted still-air overheat when the drive is `auto`.
+    pub overheat: Option<OverheatTarget>,
+    /// Tolerance of the series resistor or current source (fraction).
+    pub tolerance: f64,
+}
+
 /// Wanted hysteresis.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub enum HysteresisSpec {

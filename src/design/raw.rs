@@ -115,6 +115,13 @@ pub struct RawElement {
     pub name: Option<Word>,
     /// Label of a `[[candidate]]` (rejected in a design's `[element]`).
     pub label: Option<Word>,
+    /// A `[[candidate]]`'s own drive (rejected in a design's `[element]`).
+    pub drive: Option<RawDrive>,
+    /// A `[[candidate]]`'s own wanted still-air rise, with the design's
+    /// `auto` drive (rejected in a design's `[element]`).
+    pub overheat_rise: Option<Value>,
+    /// A `[[candidate]]`'s own wanted overheat ratio, likewise.
+    pub overheat_ratio: Option<Value>,
     /// Material preset (TCR, emissivity, heat capacity, limit in air).
     pub material: Option<Word>,
     /// Lumped heat capacity (optional when it can be derived).
