@@ -117,6 +117,29 @@ pub struct ValueRow {
     pub reason: String,
 }
 
+impl ValueRow {
+    /// A fixed resistor's line of the bill: its value in ohm, RKM text
+    /// (IEC 60062), the series it was taken from and the reason.
+    pub fn resistor(
+        designator: &str,
+        value: f64,
+        exact: Option<f64>,
+        series: &str,
+        reason: String,
+    ) -> Self {
+        Self {
+            designator: designator.into(),
+            part: "fixed resistor".into(),
+            value_ohm: Some(value),
+            exact,
+            e_series: series.into(),
+            text: crate::eseries::format_rkm(value),
+            reason,
+            ..Self::default()
+        }
+    }
+}
+
 /// A check that passes or fails, judged at its worst condition.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Check {
@@ -244,6 +267,8 @@ pub struct SupplyBudget {
     pub idle_a: f64,
     /// Current drawn from the input when tripped, A.
     pub tripped_a: f64,
+    /// Largest current the regulated rail draws, A (0 without a regulator).
+    pub regulator_load_a: f64,
     /// Regulator dissipation at the worst case, W (0 without a regulator).
     pub regulator_dissipation_w: f64,
     /// Regulator junction temperature at the worst case, °C.

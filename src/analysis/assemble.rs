@@ -119,33 +119,13 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
     }
 }
 
-/// A resistor line of the bill.
-pub fn resistor(
-    designator: &str,
-    value: f64,
-    exact: Option<f64>,
-    series: &str,
-    reason: String,
-) -> ValueRow {
-    ValueRow {
-        designator: designator.into(),
-        part: "fixed resistor".into(),
-        value_ohm: Some(value),
-        exact,
-        e_series: series.into(),
-        text: format_rkm(value),
-        reason,
-        ..ValueRow::default()
-    }
-}
-
 /// The core values: drive, divider, trimmer, feedback, input resistor, pull-up.
 pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     let es = design.e_series.name();
     let mut v = Vec::new();
     match (core.drive, design.drive) {
         (Drive::SeriesResistor { series_ohm, rail_v }, DriveSpec::SeriesResistor { rail, .. }) => v
-            .push(resistor(
+            .push(ValueRow::resistor(
                 "RS1",
                 series_ohm,
                 core.drive_exact,
@@ -190,7 +170,7 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     };
     let det = &design.detector;
     use crate::design::model::Sizable::Fixed;
-    v.push(resistor(
+    v.push(ValueRow::resistor(
         "RR1",
         d.top_ohm,
         et.filter(|_| !matches!(det.top_ohm, Fixed(_))),
@@ -214,7 +194,7 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
         ),
         ..ValueRow::default()
     });
-    v.push(resistor(
+    v.push(ValueRow::resistor(
         "RR2",
         d.bottom_ohm,
         eb.filter(|_| !matches!(det.bottom_ohm, Fixed(_))),
@@ -222,7 +202,7 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
         "reference divider, bottom (ground side)".into(),
     ));
     if let Some(rf) = core.front.feedback_ohm {
-        v.push(resistor(
+        v.push(ValueRow::resistor(
             "RF1",
             rf,
             core.feedback_exact,
@@ -240,7 +220,7 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
         ));
         if core.front.arrangement == Arrangement::SenseOnNonInverting && core.front.input_ohm > 0.0
         {
-            v.push(resistor(
+            v.push(ValueRow::resistor(
                 "RI1",
                 core.front.input_ohm,
                 None,
@@ -251,7 +231,7 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     }
     let needs_pullup = core.front.feedback_ohm.is_some() || core.stage != StageKind::Direct;
     if needs_pullup {
-        v.push(resistor(
+        v.push(ValueRow::resistor(
             "RP1",
             core.output.pullup_ohm,
             None,

@@ -17,12 +17,13 @@
 //! referred to the sense node.
 
 use super::size::{drive_with, element_rail, trimmer_position, SizedCore};
+pub use super::switching::{switching_at, Switching};
 use crate::circuit::divider::Divider;
 use crate::circuit::frontend::FrontEnd;
 use crate::design::model::{Design, Rail, TripDirection};
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
-use crate::solve::{airflow_for_sense, operating_point, SolveError};
+use crate::solve::operating_point;
 
 /// One build: each part's value as a factor of its nominal value.
 #[derive(Debug, Clone, PartialEq)]
@@ -69,40 +70,6 @@ pub struct Site {
     pub comparator_rail_v: f64,
     /// The bench: nominal ambient and supply, where each build is trimmed.
     pub bench: bool,
-}
-
-/// Where the output switches for a given switching level.
-#[derive(Debug, Clone, PartialEq)]
-pub enum Switching {
-    /// At this airflow, m/s.
-    At(f64),
-    /// The level lies beyond every airflow on the tripped side: the output
-    /// is tripped at every airflow.
-    AlwaysTripped,
-    /// The level lies beyond every airflow on the idle side: the output
-    /// never trips.
-    NeverTrips,
-    /// No steady state could be solved.
-    Unsolved(String),
-}
-
-impl Switching {
-    /// The airflow, when it switches at one.
-    pub fn airflow(&self) -> Option<f64> {
-        match self {
-            Switching::At(u) => Some(*u),
-            _ => None,
-        }
-    }
-    /// In words.
-    pub fn describe(&self) -> String {
-        match self {
-            Switching::At(u) => format!("{u:.3} m/s"),
-            Switching::AlwaysTripped => "always tripped".into(),
-            Switching::NeverTrips => "never trips".into(),
-            Switching::Unsolved(e) => format!("no steady state ({e})"),
-        }
-    }
 }
 
 /// A second, hotter stable state of the element.
@@ -339,29 +306,6 @@ pub fn tripped_sign(design: &Design, core: &SizedCore) -> f64 {
         } else {
             -1.0
         }
-}
-
-/// Where the sense voltage crosses `level`, or which side every airflow
-/// lies on.
-pub fn switching_at(
-    element: &Element,
-    drive: &Drive,
-    env: &Environment,
-    level: f64,
-    hint: f64,
-    sigma: f64,
-) -> Switching {
-    match airflow_for_sense(element, drive, env, level, hint) {
-        Ok(u) => Switching::At(u),
-        Err(SolveError::LevelNotReached { at_zero_v, .. }) => {
-            if sigma * (at_zero_v - level) > 0.0 {
-                Switching::AlwaysTripped
-            } else {
-                Switching::NeverTrips
-            }
-        }
-        Err(e) => Switching::Unsolved(e.to_string()),
-    }
 }
 
 /// Evaluate every build at every site.

@@ -7,6 +7,8 @@ pub mod corners;
 pub mod drift;
 pub mod output;
 pub mod size;
+pub mod stage;
+pub mod switching;
 
 use crate::design::Design;
 use crate::report::{Check, Report};
@@ -23,8 +25,12 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
     checks.extend(steady_state_check(&core));
     let drift = drift::drift(design, &core, &grid);
     let section = output::circuit_section(design, &core, &grid, &mut values);
+    let view = stage::StageView::new(design, &core.output, core.front.feedback_ohm.is_some());
+    checks.extend(checks::stage::checks(&view));
+    checks.extend(checks::comparator::checks(&view, &core));
+    checks.extend(checks::ratings::checks(design, &section.rated));
+    checks.extend(checks::supply::checks(design, &section.supply));
     values.extend(section.values);
-    checks.extend(section.checks);
     let mut cautions = assemble::cautions(design, &core);
     cautions.extend(section.cautions);
     let element = format!(

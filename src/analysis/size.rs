@@ -21,10 +21,6 @@ use crate::solve::{
 /// and small against the element's current.
 pub const DEFAULT_DIVIDER_CURRENT_A: f64 = 200e-6;
 
-/// Pull-up on the comparator output when the file leaves it open (common
-/// practice for open-collector outputs, no source).
-pub const DEFAULT_PULLUP_OHM: f64 = 10e3;
-
 /// Why a design could not be sized: each is a failure of the design, not of
 /// the input file.
 #[derive(Debug, Clone, PartialEq, thiserror::Error)]
@@ -109,7 +105,7 @@ pub struct SizedCore {
     pub feedback_exact: Option<f64>,
     /// The comparator output node and the planned output stage (pull-up,
     /// its exact value, the output-high source).
-    pub output: super::output::OutputNode,
+    pub output: super::stage::OutputNode,
     /// Trimmer setting that puts the trip point on target (0 … 1, may lie
     /// outside when the trimmer cannot reach).
     pub trimmer_x: f64,
@@ -123,9 +119,9 @@ pub struct SizedCore {
     /// Release airflow, m/s.
     pub release_airflow_m_per_s: Option<f64>,
     /// Trip at nominal conditions, with what happens when it never switches.
-    pub trip: super::corners::Switching,
+    pub trip: super::switching::Switching,
     /// Release at nominal conditions.
-    pub release: super::corners::Switching,
+    pub release: super::switching::Switching,
     /// Airflows of the table at which the element has no steady state, with
     /// the reason.
     pub unsolved: Vec<(String, f64, String)>,
@@ -465,7 +461,7 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         }
     };
 
-    let node = super::output::output_node(design, stage);
+    let node = super::stage::output_node(design, stage);
     let mut notes = Vec::new();
     let sense_src = drive.sense_source_ohm(at_trip.resistance_ohm);
     // A series input resistor is only fitted where feedback acts on the
@@ -542,8 +538,8 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         } else {
             -1.0
         };
-    let trip = super::corners::switching_at(&element, &drive, &env, trip_level, u_t, sigma);
-    let release = super::corners::switching_at(&element, &drive, &env, release_level, u_t, sigma);
+    let trip = super::switching::switching_at(&element, &drive, &env, trip_level, u_t, sigma);
+    let release = super::switching::switching_at(&element, &drive, &env, release_level, u_t, sigma);
 
     Ok(SizedCore {
         env,

@@ -8,11 +8,19 @@
 //! - `trip-band`, `no-false-trip`, `releases-when-quiet`: [`trip`]
 //! - `trimmer-reaches-target`, `trimmer-mid-travel`, `trimmer-coverage`: [`trimmer`]
 //! - `element-limit`, `no-hot-latch`: [`element`]
-//! - `comparator-*`, `q1-*`, `d1-ratings`, `k1-coil-voltage`,
-//!   `led-headroom`, `regulator-*`, `power-rating-<designator>`:
-//!   [`super::output`] (the output stage, comparator, supply and ratings)
+//! - `comparator-supply`, `comparator-common-mode`, `comparator-sink`,
+//!   `comparator-input-error`: [`comparator`]
+//! - `led-headroom`, `k1-coil-voltage`, `d1-ratings`, `q1-saturation`,
+//!   `q1-ratings`, `q1-hold-off`: [`stage`]
+//! - `regulator-dropout`, `regulator-junction`: [`supply`]
+//! - `power-rating-<designator>`: [`ratings`]
+//! - `element-steady-state`, `design-sizable`: [`super`] (`analysis/mod.rs`)
 
+pub mod comparator;
 pub mod element;
+pub mod ratings;
+pub mod stage;
+pub mod supply;
 pub mod trimmer;
 pub mod trip;
 
