@@ -79,20 +79,42 @@ pub fn circuit_section(
 ) -> CircuitSection {
     let mut s = CircuitSection::default();
     let view = StageView::new(design, &core.output, core.front.feedback_ohm.is_some());
-    let (stage, plan, cmp) = (view.stage, view.plan, view.comparator);
-    let es = design.e_series.name();
-    let ambient_max = design.ambient.max_k;
-    let out = design.output.as_ref();
-    let (pullup_fitted, rp) = (view.pullup_fitted, view.rp);
-    let (vcc_lo, vcc_hi) = (view.vcc_lo, view.vcc_hi);
-    let (vl, vl_lo, vl_hi) = (view.vl, view.vl_lo, view.vl_hi);
-    let (vol, vbe) = (view.vol, view.vbe);
-    let mut loads: Vec<Dissipation> = Vec::new();
+    let mut loads = Vec::new();
+    load_parts(&view, &mut s.values, &mut loads);
+    switch_parts(&view, &mut s.values, &mut loads);
+    s.values.push(comparator_row(&view));
+    loads.extend(core_dissipations(design, core, grid, &view));
+    // Core parts first, in bill order; the stage's parts after them.
+    loads.sort_by_key(|l| {
+        values
+            .iter()
+            .position(|v| v.designator == l.designator)
+            .unwrap_or(usize::MAX)
+    });
+    s.rated = rate_resistors(design, &loads, values, &mut s.values, design.ambient.max_k);
+    s.supply = supply_budget(design, core, grid, &view, &mut s.values);
+    s.values.extend(decoupling_rows(design));
+    s.cautions.extend(hot_part_caution(
+        design,
+        core,
+        values,
+        &s.values,
+        s.supply.regulator_dissipation_w,
+    ));
+    s.cautions.extend(stage_cautions(&view));
+    s
+}
 
-    // ---- output stage parts ------------------------------------------
-    let (ic_max, ic_nom) = (view.ic_max, view.ic_nom);
-    if let Some(o) = out {
-        match (&o.load, plan.led) {
+/// The load's parts: the LED and its resistor, a buzzer, or the relay coil
+/// and its flyback diode; dissipations go to `loads`.
+fn load_parts(v: &StageView, values: &mut Vec<ValueRow>, loads: &mut Vec<Dissipation>) {
+    let Some(o) = v.design.output.as_ref() else {
+        return;
+    };
+    let (stage, plan, es) = (v.stage, v.plan, v.design.e_series.name());
+    let (vl, vl_lo, vl_hi) = (v.vl, v.vl_lo, v.vl_hi);
+    let (ic_max, ic_nom) = (v.ic_max, v.ic_nom);
+    match (&o.load, plan.led) {
             (
                 Load::Led {
                     forward_v,
@@ -101,39 +123,37 @@ pub fn circuit_section(
                 // No headroom (`Err`): no resistor; `checks::stage` reports it.
                 Some(Ok((rl, exact))),
             ) => {
-                {
-                    let i_nom = ic_nom;
-                    let mut r = ValueRow::resistor(
-                        "RL1",
-                        rl,
-                        Some(exact),
-                        es,
-                        format!(
-                            "LED series resistor from the {} rail: ({:.2} V − {:.2} V LED − {:.2} V switch)/{} gives {} (at or above the exact value, so at most the wanted current)",
-                            o.rail.name(), vl, forward_v, plan.switch_drop_v, eng(*current_a, "A"), eng(i_nom, "A")
-                        ),
-                    );
-                    r.part = "fixed resistor".into();
-                    s.values.push(r);
-                    loads.push(Dissipation {
-                        designator: "RL1",
-                        watts: ic_max * ic_max * rl,
-                        case: format!("{} at the highest load rail ({vl_hi:.2} V)", eng(ic_max, "A")),
-                    });
-                    s.values.push(row(
-                        "LED1",
-                        "indicator LED",
-                        format!("{} at {}", eng(*forward_v, "V"), eng(*current_a, "A")),
-                        format!("I_F ≥ {}", eng(ic_max, "A")),
-                        if stage == StageKind::Direct {
-                            "alarm indicator, sunk by the comparator output; off, its path is held below the forward voltage and its leakage is neglected".into()
-                        } else {
-                            "alarm indicator".into()
-                        },
-                    ));
-                }
+                let i_nom = ic_nom;
+                let mut r = ValueRow::resistor(
+                    "RL1",
+                    rl,
+                    Some(exact),
+                    es,
+                    format!(
+                        "LED series resistor from the {} rail: ({:.2} V − {:.2} V LED − {:.2} V switch)/{} gives {} (at or above the exact value, so at most the wanted current)",
+                        o.rail.name(), vl, forward_v, plan.switch_drop_v, eng(*current_a, "A"), eng(i_nom, "A")
+                    ),
+                );
+                r.part = "fixed resistor".into();
+                values.push(r);
+                loads.push(Dissipation {
+                    designator: "RL1",
+                    watts: ic_max * ic_max * rl,
+                    case: format!("{} at the highest load rail ({vl_hi:.2} V)", eng(ic_max, "A")),
+                });
+                values.push(row(
+                    "LED1",
+                    "indicator LED",
+                    format!("{} at {}", eng(*forward_v, "V"), eng(*current_a, "A")),
+                    format!("I_F ≥ {}", eng(ic_max, "A")),
+                    if stage == StageKind::Direct {
+                        "alarm indicator, sunk by the comparator output; off, its path is held below the forward voltage and its leakage is neglected".into()
+                    } else {
+                        "alarm indicator".into()
+                    },
+                ));
             }
-            (Load::Buzzer { current_a }, _) => s.values.push(row(
+            (Load::Buzzer { current_a }, _) => values.push(row(
                 "BZ1",
                 "buzzer (DC, built-in driver)",
                 eng(*current_a, "A"),
@@ -161,7 +181,7 @@ pub fn circuit_section(
                 );
                 k.value_ohm = Some(*coil_ohm);
                 k.e_series = "given".into();
-                s.values.push(k);
+                values.push(k);
                 // Flyback diode across every coil.
                 let d = DiodeRatings {
                     vrrm_v: o.diode.reverse_max_v,
@@ -178,70 +198,80 @@ pub fn circuit_section(
                 );
                 dr.value_v = Some(d.vrrm_v);
                 dr.value_a = Some(d.if_avg_a);
-                s.values.push(dr);
+                values.push(dr);
             }
             _ => {}
         }
+}
 
-        // The transistor switch.
-        if let (Some(((rb, rb_exact), (rbe, rbe_exact))), true) =
-            (plan.base, stage != StageKind::Direct)
-        {
-            let npn = stage == StageKind::NpnLowSide;
-            let (_, span_hi, series) = view.base_drive(rb);
-            let mut b = ValueRow::resistor(
-                "RB1",
-                rb,
-                (rb_exact > 0.0).then_some(rb_exact),
-                es,
-                if npn {
-                    format!("base resistor: with the pull-up RP1 in series it sets the base current for a forced gain of {} (at or below the exact value)", o.forced_gain)
-                } else {
-                    format!("base resistor: the comparator sinks the base current through it for a forced gain of {} (at or below the exact value)", o.forced_gain)
-                },
-            );
-            b.part = "fixed resistor".into();
-            s.values.push(b);
-            s.values.push(ValueRow::resistor(
-                "RBE1",
-                rbe,
-                Some(rbe_exact),
-                es,
-                "base–emitter hold-off: keeps Q1 off against leakage and a floating drive".into(),
-            ));
-            let i_drive_hi = ((span_hi - vbe) / series).max(0.0);
-            loads.push(Dissipation {
-                designator: "RB1",
-                watts: i_drive_hi * i_drive_hi * rb,
-                case: format!("{} of base drive at the highest rail", eng(i_drive_hi, "A")),
-            });
-            loads.push(Dissipation {
-                designator: "RBE1",
-                watts: vbe * vbe / rbe,
-                case: format!("V_BE = {vbe:.2} V across it"),
-            });
-            let off_vce = view.off_vce();
-            let kind = if npn { "NPN" } else { "PNP" };
-            s.values.push(row(
-                "Q1",
-                &format!("{kind} small-signal transistor"),
-                format!("β_F {}", o.forced_gain),
-                format!("Vce ≥ {}, Ic ≥ {}", eng(off_vce, "V"), eng(ic_max, "A")),
-                if npn {
-                    "low-side switch: on while the comparator output is released (high)".into()
-                } else {
-                    "high-side switch: on while the comparator output sinks (low)".into()
-                },
-            ));
-        }
+/// The transistor switch: its base and hold-off resistors and the
+/// transistor itself; dissipations go to `loads`.
+fn switch_parts(v: &StageView, values: &mut Vec<ValueRow>, loads: &mut Vec<Dissipation>) {
+    let Some(o) = v.design.output.as_ref() else {
+        return;
+    };
+    let (stage, plan, es) = (v.stage, v.plan, v.design.e_series.name());
+    let (vbe, ic_max) = (v.vbe, v.ic_max);
+    if let (Some(((rb, rb_exact), (rbe, rbe_exact))), true) =
+        (plan.base, stage != StageKind::Direct)
+    {
+        let npn = stage == StageKind::NpnLowSide;
+        let (_, span_hi, series) = v.base_drive(rb);
+        let mut b = ValueRow::resistor(
+            "RB1",
+            rb,
+            (rb_exact > 0.0).then_some(rb_exact),
+            es,
+            if npn {
+                format!("base resistor: with the pull-up RP1 in series it sets the base current for a forced gain of {} (at or below the exact value)", o.forced_gain)
+            } else {
+                format!("base resistor: the comparator sinks the base current through it for a forced gain of {} (at or below the exact value)", o.forced_gain)
+            },
+        );
+        b.part = "fixed resistor".into();
+        values.push(b);
+        values.push(ValueRow::resistor(
+            "RBE1",
+            rbe,
+            Some(rbe_exact),
+            es,
+            "base–emitter hold-off: keeps Q1 off against leakage and a floating drive".into(),
+        ));
+        let i_drive_hi = ((span_hi - vbe) / series).max(0.0);
+        loads.push(Dissipation {
+            designator: "RB1",
+            watts: i_drive_hi * i_drive_hi * rb,
+            case: format!("{} of base drive at the highest rail", eng(i_drive_hi, "A")),
+        });
+        loads.push(Dissipation {
+            designator: "RBE1",
+            watts: vbe * vbe / rbe,
+            case: format!("V_BE = {vbe:.2} V across it"),
+        });
+        let off_vce = v.off_vce();
+        let kind = if npn { "NPN" } else { "PNP" };
+        values.push(row(
+            "Q1",
+            &format!("{kind} small-signal transistor"),
+            format!("β_F {}", o.forced_gain),
+            format!("Vce ≥ {}, Ic ≥ {}", eng(off_vce, "V"), eng(ic_max, "A")),
+            if npn {
+                "low-side switch: on while the comparator output is released (high)".into()
+            } else {
+                "high-side switch: on while the comparator output sinks (low)".into()
+            },
+        ));
     }
+}
 
-    // ---- comparator --------------------------------------------------
+/// The comparator's line of the bill, with the limits it is judged by.
+fn comparator_row(v: &StageView) -> ValueRow {
+    let cmp = v.comparator;
     let cm_text = format!(
         "common mode {:.1} V to V+ − {:.1} V",
         cmp.common_mode_low_v, cmp.common_mode_high_below_supply_v
     );
-    s.values.push(row(
+    row(
         "U1",
         "open-collector comparator",
         String::new(),
@@ -254,11 +284,23 @@ pub fn circuit_section(
         ),
         format!(
             "compares the sense node with the reference, fed from the {} rail",
-            design.comparator.rail.name()
+            v.design.comparator.rail.name()
         ),
-    ));
+    )
+}
 
-    // ---- core resistor dissipations ----------------------------------
+/// The core's dissipations: the element series resistor (cold at power-on,
+/// or latched hot), the divider and trimmer, the feedback and input
+/// resistors, the pull-up.
+fn core_dissipations(
+    design: &Design,
+    core: &SizedCore,
+    grid: &Grid,
+    v: &StageView,
+) -> Vec<Dissipation> {
+    let mut loads = Vec::new();
+    let (stage, pullup_fitted, rp) = (v.stage, v.pullup_fitted, v.rp);
+    let (vcc_hi, vl_hi, vol) = (v.vcc_hi, v.vl_hi, v.vol);
     if let (Drive::SeriesResistor { series_ohm, .. }, DriveSpec::SeriesResistor { rail, .. }) =
         (core.drive, design.drive)
     {
@@ -363,16 +405,20 @@ pub fn circuit_section(
             case: format!("output low at the highest comparator rail ({vcc_hi:.2} V)"),
         });
     }
-    // Core parts first, in bill order; the stage's parts after them.
-    loads.sort_by_key(|l| {
-        values
-            .iter()
-            .position(|v| v.designator == l.designator)
-            .unwrap_or(usize::MAX)
-    });
-    s.rated = rate_resistors(design, &loads, values, &mut s.values, ambient_max);
+    loads
+}
 
-    // ---- supply -------------------------------------------------------
+/// The supply budget (currents idle and tripped, the regulator's load,
+/// dissipation and junction) and the regulator's line of the bill.
+fn supply_budget(
+    design: &Design,
+    core: &SizedCore,
+    grid: &Grid,
+    v: &StageView,
+    values: &mut Vec<ValueRow>,
+) -> SupplyBudget {
+    let (plan, pullup_fitted) = (v.plan, v.pullup_fitted);
+    let ambient_max = design.ambient.max_k;
     // The element's current in a hot stable state, where it has one.
     let hot_a = grid
         .hot_states
@@ -404,7 +450,7 @@ pub fn circuit_section(
         let i_out = currents(core.idle_state, End::Max)
             .1
             .max(currents(tripped, End::Max).1);
-        s.values.push({
+        values.push({
             let mut u = row(
                 "U2",
                 "fixed linear regulator",
@@ -432,9 +478,12 @@ pub fn circuit_section(
             budget.regulator_junction_c = Some(reg.junction_k(ambient_max, p) - 273.15);
         }
     }
-    s.supply = budget;
+    budget
+}
 
-    // Decoupling, one capacitor per rail used.
+/// Decoupling: one capacitor per rail used.
+fn decoupling_rows(design: &Design) -> Vec<ValueRow> {
+    let mut out = Vec::new();
     let mut rails = vec![Rail::Input];
     if design.supply.regulator.is_some() {
         rails.push(Rail::Regulated);
@@ -477,38 +526,40 @@ pub fn circuit_section(
         } else {
             "given".into()
         };
-        s.values.push(c);
+        out.push(c);
     }
 
-    // ---- cautions -----------------------------------------------------
-    s.cautions.extend(hot_part_caution(
-        design,
-        core,
-        values,
-        &s.values,
-        s.supply.regulator_dissipation_w,
-    ));
-    if let Some(o) = out {
-        if stage == StageKind::Direct && vl_hi > cmp.supply_max_v {
-            s.cautions.push(format!(
+    out
+}
+
+/// Cautions about the output stage: a direct load above the comparator's
+/// supply rating, an LED that glows when it should be off.
+fn stage_cautions(v: &StageView) -> Vec<String> {
+    let mut out = Vec::new();
+    let Some(o) = v.design.output.as_ref() else {
+        return out;
+    };
+    let (stage, plan, cmp) = (v.stage, v.plan, v.comparator);
+    let (pullup_fitted, rp, vcc_lo, vl_hi) = (v.pullup_fitted, v.rp, v.vcc_lo, v.vl_hi);
+    if stage == StageKind::Direct && vl_hi > cmp.supply_max_v {
+        out.push(format!(
                 "The comparator output drives the load directly from the {} rail (up to {vl_hi:.1} V), above the comparator's {:.0} V supply maximum: check the output's own voltage rating or use a transistor stage.",
                 o.rail.name(), cmp.supply_max_v
             ));
-        }
-        if stage == StageKind::Direct && pullup_fitted {
-            if let (Load::Led { forward_v, .. }, Some(Ok((rl, _)))) = (&o.load, plan.led) {
-                let node = millman(vcc_lo, rp, vl_hi - forward_v, rl);
-                let glow = (vl_hi - forward_v - node) / rl;
-                if glow > 0.0 {
-                    s.cautions.push(format!(
+    }
+    if stage == StageKind::Direct && pullup_fitted {
+        if let (Load::Led { forward_v, .. }, Some(Ok((rl, _)))) = (&o.load, plan.led) {
+            let node = millman(vcc_lo, rp, vl_hi - forward_v, rl);
+            let glow = (vl_hi - forward_v - node) / rl;
+            if glow > 0.0 {
+                out.push(format!(
                         "LED1 glows faintly when the output is off: its rail ({vl_hi:.1} V) less its forward voltage lies above the pull-up's {vcc_lo:.1} V, so about {} flows through it into the pull-up rail. Feed the LED from the comparator's rail or use a transistor stage.",
                         eng(glow, "A")
                     ));
-                }
             }
         }
     }
-    s
+    out
 }
 
 /// Continuous dissipation from which a part gets a hot-part caution: 0.5 W

@@ -47,8 +47,59 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         }
     };
 
-    // Ambient.
-    let a = &raw.ambient;
+    let ambient = build_ambient(rd, &raw.ambient)?;
+
+    let supply = build_supply(rd, &raw.supply)?;
+    let has_reg = supply.regulator.is_some();
+
+    // Element.
+    let (element, element_tolerance) = super::element::build_element(rd, &raw.element)?;
+
+    // Drive.
+    let DriveChoice {
+        drive,
+        overheat,
+        tolerance: drive_tolerance,
+    } = build_drive(rd, &raw.drive, "drive", has_reg, e_series)?;
+
+    let detector = build_detector(rd, &raw.detector, drive, has_reg, e_series)?;
+    let reference_rail = detector.reference_rail;
+
+    let comparator = build_comparator(
+        rd,
+        raw.comparator.as_ref(),
+        reference_rail,
+        has_reg,
+        &ambient,
+    )?;
+    let output = match &raw.output {
+        Some(o) => Some(build_output(rd, o, has_reg, &comparator, &supply)?),
+        None => None,
+    };
+    let ratings = build_ratings(rd, raw.ratings.as_ref())?;
+
+    Ok(Design {
+        title,
+        design_file: rd.file.to_string(),
+        element_name: raw.element.name.as_ref().map(|n| n.get_ref().clone()),
+        e_series,
+        ambient,
+        supply,
+        element,
+        element_tolerance,
+        drive,
+        drive_tolerance,
+        overheat,
+        detector,
+        comparator,
+        output,
+        ratings,
+        assumptions: std::mem::take(&mut rd.assumptions),
+    })
+}
+
+/// `[ambient]`: nominal, lowest and highest ambient and the air pressure.
+fn build_ambient(rd: &mut Reader<'_>, a: &raw::RawAmbient) -> R<Ambient> {
     let nominal_k = rd.quantity(&a.nominal, "ambient.nominal", Dimension::Temperature)?;
     let min_k = rd.or_default(
         &a.min,
@@ -95,15 +146,16 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
             crate::element::STANDARD_PRESSURE_PA
         }
     };
-    let ambient = Ambient {
+    Ok(Ambient {
         nominal_k,
         min_k,
         max_k,
         pressure_pa,
-    };
+    })
+}
 
-    // Supply.
-    let s = &raw.supply;
+/// `[supply]`: the input range, the optional regulator, decoupling.
+fn build_supply(rd: &mut Reader<'_>, s: &raw::RawSupply) -> R<Supply> {
     let input_v = rd.positive(&s.input, "supply.input", Dimension::Voltage)?;
     let input_min_v = rd.or_default(
         &s.input_min,
@@ -177,27 +229,24 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         Some(v) => rd.sizable(v, "supply.decoupling", Dimension::Capacitance)?,
         None => Sizable::Auto,
     };
-    let supply = Supply {
+    Ok(Supply {
         input_v,
         input_min_v,
         input_max_v,
         regulator,
         decoupling_f,
-    };
-    let has_reg = regulator.is_some();
+    })
+}
 
-    // Element.
-    let (element, element_tolerance) = super::element::build_element(rd, &raw.element)?;
-
-    // Drive.
-    let DriveChoice {
-        drive,
-        overheat,
-        tolerance: drive_tolerance,
-    } = build_drive(rd, &raw.drive, "drive", has_reg, e_series)?;
-
-    // Detector.
-    let t = &raw.detector;
+/// `[detector]`: the trip point, its band and the quiet airflow, the
+/// divider, trimmer and hysteresis.
+fn build_detector(
+    rd: &mut Reader<'_>,
+    t: &raw::RawDetector,
+    drive: DriveSpec,
+    has_reg: bool,
+    e_series: ESeries,
+) -> R<Detector> {
     let trip_airflow_m_per_s = rd.positive(
         &t.trip_airflow,
         "detector.trip_airflow",
@@ -319,7 +368,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     let trip_band_m_per_s = trip_band(rd, t, trip_airflow_m_per_s)?;
     check_quiet_outside_band(rd, t, trip_on, trip_band_m_per_s, normal_airflow_m_per_s)?;
     let divider_tolerances = divider_tolerances(rd, t, e_series)?;
-    let detector = Detector {
+    Ok(Detector {
         trip_airflow_m_per_s,
         normal_airflow_m_per_s,
         trip_band_m_per_s,
@@ -335,20 +384,12 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         hysteresis,
         feedback_ohm,
         input_resistor_ohm,
-    };
+    })
+}
 
-    let comparator = build_comparator(
-        rd,
-        raw.comparator.as_ref(),
-        reference_rail,
-        has_reg,
-        &ambient,
-    )?;
-    let output = match &raw.output {
-        Some(o) => Some(build_output(rd, o, has_reg, &comparator, &supply)?),
-        None => None,
-    };
-    let ratings = match &raw.ratings {
+/// `[ratings]`: the derating policy.
+fn build_ratings(rd: &mut Reader<'_>, g: Option<&raw::RawRatings>) -> R<RatingsSpec> {
+    Ok(match g {
         None => {
             rd.assumptions.push("ratings not given: resistors run at no more than 50 % of rated power (common practice); trimmer rated 0.1 W (typical)".into());
             RatingsSpec {
@@ -370,25 +411,6 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
                 |r, v| r.positive(v, "ratings.trimmer_power", Dimension::Power),
             )?,
         },
-    };
-
-    Ok(Design {
-        title,
-        design_file: rd.file.to_string(),
-        element_name: raw.element.name.as_ref().map(|n| n.get_ref().clone()),
-        e_series,
-        ambient,
-        supply,
-        element,
-        element_tolerance,
-        drive,
-        drive_tolerance,
-        overheat,
-        detector,
-        comparator,
-        output,
-        ratings,
-        assumptions: std::mem::take(&mut rd.assumptions),
     })
 }
 
