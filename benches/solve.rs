@@ -8,7 +8,7 @@ use draftwire::element::{CoolingLaw, Element, Environment, KingsLaw, LinearTcr, 
 use draftwire::physics::convection::{ForcedCorrelation, NaturalCorrelation};
 use draftwire::physics::materials::Material;
 use draftwire::physics::platinum::CallendarVanDusen;
-use draftwire::solve::{airflow_for_sense, operating_point};
+use draftwire::solve::{airflow_by_search, airflow_for_sense, operating_point};
 
 fn main() {
     divan::main();
@@ -55,6 +55,29 @@ fn trip_airflow_solve(bencher: divan::Bencher) {
     let level = operating_point(&el, &drive, &env, 0.5).unwrap().sense_v;
     bencher.bench(|| {
         airflow_for_sense(
+            black_box(&el),
+            black_box(&drive),
+            black_box(&env),
+            black_box(level),
+            0.4,
+        )
+        .unwrap()
+    });
+}
+
+/// The same trip airflow by the bracketed search alone (what the inversion
+/// replaced for King's-law cooling; still the path for geometry cooling).
+#[divan::bench]
+fn trip_airflow_search(bencher: divan::Bencher) {
+    let el = element();
+    let env = Environment::at(295.15);
+    let drive = Drive::SeriesResistor {
+        rail_v: 5.0,
+        series_ohm: 51.0,
+    };
+    let level = operating_point(&el, &drive, &env, 0.5).unwrap().sense_v;
+    bencher.bench(|| {
+        airflow_by_search(
             black_box(&el),
             black_box(&drive),
             black_box(&env),

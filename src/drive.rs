@@ -53,6 +53,23 @@ impl Drive {
         self.current_a(r_ohm) * r_ohm
     }
 
+    /// The element resistance that gives sense voltage `sense_v` (the drive
+    /// inverted): `R = V_s·Rs/(V − V_s)` for the series drive (`V_s` below
+    /// the rail), `R = V_s/I` for a current; `None` where no positive
+    /// resistance gives it.
+    pub fn resistance_for_sense(&self, sense_v: f64) -> Option<f64> {
+        let r = match *self {
+            Drive::SeriesResistor { rail_v, series_ohm } => {
+                if !(sense_v > 0.0 && sense_v < rail_v) {
+                    return None;
+                }
+                sense_v * series_ohm / (rail_v - sense_v)
+            }
+            Drive::ConstantCurrent { current_a } => sense_v / current_a,
+        };
+        (r.is_finite() && r > 0.0).then_some(r)
+    }
+
     /// d(sense)/dR: `V·Rs/(Rs + R)²`, or `I`.
     pub fn dsense_dr(&self, r_ohm: f64) -> f64 {
         match *self {

@@ -14,7 +14,7 @@
 
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
-use crate::precision::SCAN_INTERVALS;
+use crate::precision::{ENERGY_BALANCE_REL_TOL, ROOT_ABS_TOL, ROOT_REL_TOL, SCAN_INTERVALS};
 use crate::roots::{brent, brent_fallible, RootError};
 
 /// Most roots a solve records (a physical element has at most three).
@@ -27,6 +27,11 @@ pub const SCAN_MIN_RISE_K: f64 = 1e-4;
 /// Halvings of the starting airflow the trip-airflow search tries before it
 /// evaluates still air itself.
 pub const SEARCH_HALVINGS: usize = 12;
+
+/// Bisections that locate the lowest airflow with a steady state when the
+/// search's downward walk meets a runaway (2^-40 of the step: far below
+/// any airflow resolution that matters).
+pub const RUNAWAY_EDGE_BISECTIONS: usize = 40;
 
 /// Highest airflow (m/s) the trip-airflow search will consider.
 pub const MAX_AIRFLOW_M_PER_S: f64 = 100.0;
@@ -180,6 +185,102 @@ fn residual_slope(element: &Element, drive: &Drive, env: &Environment, u: f64, t
         - drive.dpower_dr(r) * law.derivative_ohm_per_k(t_k)
 }
 
+/// Most Newton steps the single-root fast path takes before it hands the
+/// solve to the full scan (each step at least bisects the bracket when
+/// Newton would leave it, so 200 reach f64 resolution on any range).
+pub const NEWTON_MAX_STEPS: usize = 200;
+
+/// Share of the energy-balance tolerance a Newton root must close to.
+pub const NEWTON_CLOSURE: f64 = 1e-3;
+
+/// Whether the balance provably has at most one root on the law's range, so
+/// that a safeguarded Newton solve replaces the scan: a temperature-
+/// independent conductance G (King's law, the data-sheet form) and a
+/// rising, linear-or-concave R(T). Then with h(R) the drive's power
+/// (`V²R/(Rs + R)²` or `I²R`), `f(T) = G·(T − Ta) − h(R(T))` has
+/// `f' = G − h'(R)·R' > 0` wherever `h' ≤ 0`, and `f'' = −(h''·R'² +
+/// h'·R'') ≥ 0` wherever `h' > 0` (there `h'' < 0`, since `R < Rs < 2Rs`,
+/// and `R'' ≤ 0`); a function that starts below zero at ambient, is convex
+/// where it may fall and rises elsewhere crosses zero at most once.
+pub fn single_root_provable(element: &Element) -> bool {
+    element.cooling_law().kings_form().is_some() && element.resistance_law().is_increasing_concave()
+}
+
+/// Safeguarded Newton on the balance `f(T) = P_loss − P_elec` inside the
+/// bracket `[T_amb, T_max]` (Newton steps that would leave the bracket are
+/// replaced by bisection), for designs with at most one root. `None` when
+/// there is no sign change (runaway or no power) or it does not converge:
+/// the full scan then decides and explains.
+fn newton_single_root(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+) -> Option<OperatingPoint> {
+    let (lo_k, hi_k) = element.resistance_law().valid_range_k();
+    let ta = env.ambient_k;
+    if !(ta >= lo_k && ta < hi_k) {
+        return None;
+    }
+    // The conductance does not depend on T here: evaluate it once.
+    let g = element.cooling_law().kings_form()?.conductance_w_per_k(u);
+    let law = element.resistance_law();
+    let f = |t: f64| g * (t - ta) - drive.power_w(law.resistance_ohm(t));
+    let slope = |t: f64| g - drive.dpower_dr(law.resistance_ohm(t)) * law.derivative_ohm_per_k(t);
+    let (mut lo, mut hi) = (ta, hi_k);
+    let (f_lo, f_hi) = (f(lo), f(hi));
+    if !(f_lo < 0.0 && f_hi > 0.0) {
+        return None;
+    }
+    // First guess: one Newton step from ambient.
+    let d0 = slope(ta);
+    let mut t = if d0 > 0.0 {
+        ta - f_lo / d0
+    } else {
+        0.5 * (lo + hi)
+    };
+    if !(t > lo && t < hi) {
+        t = 0.5 * (lo + hi);
+    }
+    for _ in 0..NEWTON_MAX_STEPS {
+        let ft = f(t);
+        if !ft.is_finite() {
+            return None;
+        }
+        if ft == 0.0 {
+            break;
+        }
+        if ft < 0.0 {
+            lo = t;
+        } else {
+            hi = t;
+        }
+        let d = slope(t);
+        let step = ft / d;
+        let newton = t - step;
+        // A Newton step that stays in the closed bracket is taken (near the
+        // root it may land on a bracket end by rounding); otherwise bisect.
+        let newton_ok = d > 0.0 && newton >= lo && newton <= hi;
+        let next = if newton_ok { newton } else { 0.5 * (lo + hi) };
+        let tol = ROOT_REL_TOL * next.abs() + ROOT_ABS_TOL;
+        let done = (newton_ok && step.abs() <= tol) || hi - lo <= tol;
+        t = next;
+        if done {
+            break;
+        }
+    }
+    // Accept only a balance closed well inside the policy; otherwise the
+    // scan decides.
+    let power = drive.power_w(law.resistance_ohm(t));
+    let closed = f(t).abs() <= NEWTON_CLOSURE * ENERGY_BALANCE_REL_TOL * power.abs();
+    if !closed {
+        return None;
+    }
+    let mut roots = RootSet::empty();
+    roots.push(t, slope(t) > 0.0);
+    Some(point_at(element, drive, env, u, t, roots))
+}
+
 /// Solve the steady energy balance at airflow `airflow_m_per_s`.
 ///
 /// Returns the first root above ambient — the one an element warming from
@@ -188,6 +289,23 @@ fn residual_slope(element: &Element, drive: &Drive, env: &Environment, u: f64, t
 /// scan cannot resolve, would be marginal) — with
 /// every root found recorded in [`OperatingPoint::roots`].
 pub fn operating_point(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    airflow_m_per_s: f64,
+) -> Result<OperatingPoint, SolveError> {
+    if single_root_provable(element) {
+        if let Some(p) = newton_single_root(element, drive, env, airflow_m_per_s) {
+            return Ok(p);
+        }
+    }
+    operating_point_census(element, drive, env, airflow_m_per_s)
+}
+
+/// [`operating_point`] by the full scan: every root on the range found and
+/// classified (the general path, and the reference the fast path is
+/// tested against).
+pub fn operating_point_census(
     element: &Element,
     drive: &Drive,
     env: &Environment,
@@ -315,6 +433,72 @@ pub fn sense_at(
     operating_point(element, drive, env, u).map(|p| p.sense_v)
 }
 
+/// Relative agreement the inversion's answer must show with a full solve
+/// at the airflow it found before it is trusted (else the search decides).
+pub const INVERSION_CHECK_REL: f64 = 1e-9;
+
+/// The airflow at which the sense voltage equals `level_v`, by inverting
+/// the chain instead of searching, for cooling laws with a King's-law form
+/// (King's law, the data-sheet form): the drive gives the element's
+/// resistance, the resistance law its temperature, so the electrical power
+/// and the conductance `G = P/(T − T_amb)` are known, and King's law
+/// inverted gives `U = ((G − A)/B)^(1/n)`.
+///
+/// Returns `None` when the inversion does not apply or its answer is not
+/// the cold-start operating point (a fold or a bistable element): the
+/// caller then searches. When the level lies beyond still air or beyond
+/// the highest airflow, the answer is `LevelNotReached`, confirmed by the
+/// operating points at both ends.
+pub fn airflow_by_inversion(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    level_v: f64,
+) -> Option<Result<f64, SolveError>> {
+    let king = element.cooling_law().kings_form()?;
+    let law = element.resistance_law();
+    let r = drive.resistance_for_sense(level_v)?;
+    let t = law.temperature_for_resistance(r)?;
+    let rise = t - env.ambient_k;
+    let u = if rise > 0.0 {
+        king.airflow_for_conductance(drive.power_w(r) / rise)
+    } else {
+        None
+    };
+    match u {
+        Some(u) if u <= MAX_AIRFLOW_M_PER_S => {
+            // Trust it only if it is the operating point an element warming
+            // from cold settles at.
+            let p = operating_point(element, drive, env, u).ok()?;
+            let tol = INVERSION_CHECK_REL * level_v.abs().max(f64::MIN_POSITIVE);
+            ((p.sense_v - level_v).abs() <= tol).then_some(Ok(u))
+        }
+        _ => {
+            // Beyond one end: confirm with both ends that the level is not
+            // crossed on the way.
+            let v0 = lowest_steady_sense(element, drive, env)?;
+            let vmax = operating_point(element, drive, env, MAX_AIRFLOW_M_PER_S)
+                .ok()?
+                .sense_v;
+            let between = (level_v - v0) * (level_v - vmax) <= 0.0;
+            (!between).then_some(Err(SolveError::LevelNotReached {
+                target_v: level_v,
+                at_zero_v: v0,
+                at_max_v: vmax,
+                max_airflow_m_per_s: MAX_AIRFLOW_M_PER_S,
+            }))
+        }
+    }
+}
+
+/// Sense voltage in still air, or `None` when still air has no steady
+/// state (the search handles that case).
+fn lowest_steady_sense(element: &Element, drive: &Drive, env: &Environment) -> Option<f64> {
+    operating_point(element, drive, env, 0.0)
+        .ok()
+        .map(|p| p.sense_v)
+}
+
 /// The airflow (m/s) at which the sense voltage equals `level_v`.
 ///
 /// The sense voltage is monotone in airflow for every element draftwire
@@ -324,6 +508,21 @@ pub fn sense_at(
 /// root with Brent's method. Airflows at which the element has no steady
 /// state (runaway in near-still air) end the downward walk.
 pub fn airflow_for_sense(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    level_v: f64,
+    hint_m_per_s: f64,
+) -> Result<f64, SolveError> {
+    if let Some(answer) = airflow_by_inversion(element, drive, env, level_v) {
+        return answer;
+    }
+    airflow_by_search(element, drive, env, level_v, hint_m_per_s)
+}
+
+/// [`airflow_for_sense`] by search alone: bracket, then Brent (the general
+/// path, and the reference the inversion is tested against).
+pub fn airflow_by_search(
     element: &Element,
     drive: &Drive,
     env: &Environment,
@@ -362,7 +561,35 @@ pub fn airflow_for_sense(
                 lowest = u;
                 g_lowest = v;
             }
-            Err(SolveError::Runaway { .. }) => break,
+            Err(SolveError::Runaway { .. }) => {
+                // Below `lowest` the element runs away somewhere above `u`:
+                // close in on the lowest airflow with a steady state and
+                // try the level there too.
+                let (mut dead, mut live) = (u, lowest);
+                for _ in 0..RUNAWAY_EDGE_BISECTIONS {
+                    let mid = 0.5 * (dead + live);
+                    if operating_point(element, drive, env, mid).is_ok() {
+                        live = mid;
+                    } else {
+                        dead = mid;
+                    }
+                }
+                if live < lowest {
+                    if let Ok(v) = g(live) {
+                        if v == 0.0 {
+                            return Ok(live);
+                        }
+                        if v.signum() != g_lowest.signum() {
+                            bracket = Some((live, lowest));
+                        } else {
+                            // Still one side: the lowest steady point is
+                            // what "not reached" reports.
+                            g_lowest = v;
+                        }
+                    }
+                }
+                break;
+            }
             Err(e) => return Err(e),
         }
     }

@@ -3,9 +3,11 @@
 
 use draftwire::drive::Drive;
 use draftwire::element::{CoolingLaw, Element, Environment, KingsLaw, LinearTcr, ResistanceLaw};
+use draftwire::physics::platinum::CallendarVanDusen;
 use draftwire::precision::ENERGY_BALANCE_REL_TOL;
 use draftwire::solve::{
-    airflow_for_sense, operating_point, sense_at, sensitivity_v_per_m_per_s, SolveError,
+    airflow_by_inversion, airflow_by_search, airflow_for_sense, operating_point,
+    operating_point_census, sense_at, sensitivity_v_per_m_per_s, single_root_provable, SolveError,
 };
 use proptest::prelude::*;
 
@@ -203,6 +205,107 @@ proptest! {
                 let back = sense_at(&el, &drive, &env, u).unwrap();
                 prop_assert!((back - level).abs() <= 1e-9 * level.abs().max(1e-3));
             }
+        }
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(10_000))]
+
+    /// The trip airflow by inversion (King's law solved for U) equals the
+    /// one found by the bracketed search, for random linear-TCR King's-law
+    /// designs under both drives and random levels — including levels
+    /// beyond still air or beyond the highest airflow, where both must say
+    /// the level is not reached. The reference is the independent search
+    /// (bracket + Brent on the full operating-point solve).
+    #[test]
+    fn inversion_agrees_with_search(
+        r0 in 1.0f64..200.0,
+        alpha in 0.001f64..0.007,
+        a in 2e-4f64..5e-3,
+        b in 2e-4f64..1e-2,
+        n in 0.3f64..0.7,
+        ta in 263.15f64..323.15,
+        rail in 3.0f64..24.0,
+        rs_factor in 1.0f64..20.0,
+        current in 0.005f64..0.2,
+        use_current in any::<bool>(),
+        u_level in 0.0f64..30.0,
+        spill in -0.2f64..0.2,
+    ) {
+        let el = element(r0, 293.15, alpha, a, b, n);
+        let env = Environment::at(ta);
+        let drive = if use_current {
+            Drive::ConstantCurrent { current_a: current }
+        } else {
+            Drive::SeriesResistor { rail_v: rail, series_ohm: r0 * rs_factor }
+        };
+        let Ok(p) = operating_point(&el, &drive, &env, u_level) else {
+            return Ok(());
+        };
+        // A level on the curve, or pushed past its ends by `spill`.
+        let level = p.sense_v * (1.0 + spill * spill * spill);
+        let fast = airflow_by_inversion(&el, &drive, &env, level);
+        let slow = airflow_by_search(&el, &drive, &env, level, u_level.max(1e-3));
+        match (fast, slow) {
+            (None, _) => {} // the inversion declined: the search decides
+            (Some(Ok(uf)), Ok(us)) => {
+                prop_assert!((uf - us).abs() <= 1e-7 * us.max(1e-3), "inversion {uf}, search {us}");
+            }
+            (Some(Err(SolveError::LevelNotReached { .. })), Err(SolveError::LevelNotReached { .. })) => {}
+            (f, s) => prop_assert!(false, "inversion {f:?}, search {s:?}"),
+        }
+    }
+}
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(10_000))]
+
+    /// The single-root fast path (safeguarded Newton, used where the
+    /// balance provably has at most one root) gives the root set of the
+    /// full 256-interval scan with Brent refinement: the same one root, or
+    /// no steady state, on random linear-TCR and platinum (IEC 60751
+    /// Callendar–Van Dusen) King's-law designs under both drives.
+    #[test]
+    fn fast_path_matches_full_census(
+        r0 in 1.0f64..200.0,
+        alpha in 0.0005f64..0.007,
+        platinum in any::<bool>(),
+        a in 2e-4f64..5e-3,
+        b in 2e-4f64..1e-2,
+        n in 0.3f64..0.7,
+        ta in 233.15f64..343.15,
+        rail in 1.0f64..48.0,
+        rs_factor in 0.05f64..20.0,
+        current in 0.001f64..0.3,
+        use_current in any::<bool>(),
+        u in 0.0f64..50.0,
+    ) {
+        let law = if platinum {
+            ResistanceLaw::Platinum(CallendarVanDusen::iec60751(r0).unwrap())
+        } else {
+            ResistanceLaw::Linear(LinearTcr::new(r0, 293.15, alpha).unwrap())
+        };
+        let el = Element::new(law, CoolingLaw::King(KingsLaw::new(a, b, n).unwrap()), 0.02, None).unwrap();
+        prop_assert!(single_root_provable(&el));
+        let env = Environment::at(ta);
+        let drive = if use_current {
+            Drive::ConstantCurrent { current_a: current }
+        } else {
+            Drive::SeriesResistor { rail_v: rail, series_ohm: r0 * rs_factor }
+        };
+        let fast = operating_point(&el, &drive, &env, u);
+        let full = operating_point_census(&el, &drive, &env, u);
+        match (fast, full) {
+            (Ok(f), Ok(c)) => {
+                prop_assert_eq!(c.roots.found(), 1, "the census found {} roots", c.roots.found());
+                prop_assert_eq!(f.roots.found(), 1);
+                let tol = 1e-9 * c.temperature_k;
+                prop_assert!((f.temperature_k - c.temperature_k).abs() <= tol,
+                    "fast {} K, census {} K", f.temperature_k, c.temperature_k);
+            }
+            (Err(_), Err(_)) => {}
+            (f, c) => prop_assert!(false, "fast {f:?}, census {c:?}"),
         }
     }
 }

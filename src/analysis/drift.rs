@@ -78,19 +78,22 @@ pub fn drift(design: &Design, core: &SizedCore, grid: &Grid) -> Vec<DriftRow> {
         Switching::AlwaysTripped => f64::NEG_INFINITY,
         Switching::NeverTrips | Switching::Unsolved(_) => f64::INFINITY,
     };
-    if let Some(o) = grid
-        .outcomes
-        .iter()
-        .min_by(|a, b| key(a).total_cmp(&key(b)))
-    {
+    // The first of near-equal outcomes (float noise between builds that
+    // trim to the same point) is kept, so the row does not flip.
+    let tie = super::checks::trip::TIE_M_PER_S;
+    let pick = |better: &dyn Fn(f64, f64) -> bool| {
+        grid.outcomes
+            .iter()
+            .fold(None::<&Outcome>, |best, o| match best {
+                Some(b) if !better(key(&o), key(&b)) => Some(b),
+                _ => Some(o),
+            })
+    };
+    if let Some(o) = pick(&|a, b| a < b - tie) {
         let label = format!("lowest trip point: {}", grid.sites[o.site].label);
         rows.push(row(design, core, grid, o, label));
     }
-    if let Some(o) = grid
-        .outcomes
-        .iter()
-        .max_by(|a, b| key(a).total_cmp(&key(b)))
-    {
+    if let Some(o) = pick(&|a, b| a > b + tie) {
         let label = format!("highest trip point: {}", grid.sites[o.site].label);
         rows.push(row(design, core, grid, o, label));
     }

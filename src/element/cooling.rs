@@ -84,6 +84,18 @@ impl KingsLaw {
     pub fn n(&self) -> f64 {
         self.n
     }
+    /// The airflow at which the conductance is `g` (W/K), King's law
+    /// inverted: `U = ((G − A)/B)^(1/n)`; `None` when `G < A` (less than
+    /// still air gives) or the result is not finite.
+    pub fn airflow_for_conductance(&self, g_w_per_k: f64) -> Option<f64> {
+        let x = (g_w_per_k - self.a_w_per_k) / self.b_w_per_k;
+        if x.is_nan() || x < 0.0 {
+            return None;
+        }
+        let u = x.powf(1.0 / self.n);
+        u.is_finite().then_some(u)
+    }
+
     /// G(U) = A + B·Uⁿ, U in m/s (negative U taken as |U|).
     #[inline]
     pub fn conductance_w_per_k(&self, airflow_m_per_s: f64) -> f64 {
@@ -329,6 +341,18 @@ fn central_difference(f: impl Fn(f64) -> f64, x: f64, scale: f64, floor: f64) ->
 }
 
 impl CoolingLaw {
+    /// The constant King's-law conductance `G(U) = A + B·Uⁿ` behind this
+    /// law, when it has one (King's law itself and the data-sheet form):
+    /// then the loss is `G(U)·(T − T_amb)` and the airflow for a given
+    /// conductance has a closed form ([`KingsLaw::airflow_for_conductance`]).
+    pub fn kings_form(&self) -> Option<&KingsLaw> {
+        match self {
+            CoolingLaw::King(k) => Some(k),
+            CoolingLaw::Datasheet(d) => Some(&d.king),
+            CoolingLaw::Geometry(_) => None,
+        }
+    }
+
     /// Heat lost (W) at element temperature `t_k` and airflow `u` (m/s).
     #[inline]
     pub fn heat_loss_w(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {

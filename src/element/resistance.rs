@@ -339,6 +339,23 @@ impl ResistanceLaw {
         }
     }
 
+    /// Whether R(T) rises and is linear or concave on its whole range: a
+    /// linear law with α > 0, and Callendar–Van Dusen with A > 0, B ≤ 0,
+    /// C ≤ 0 (the IEC 60751 platinum coefficients: R'' = R0·(2B +
+    /// C·(12t² − 600t)) ≤ 0 for every t). Then the energy balance with a
+    /// temperature-independent conductance has at most one root (see
+    /// `solve::operating_point`).
+    pub fn is_increasing_concave(&self) -> bool {
+        match self {
+            ResistanceLaw::Linear(l) => l.alpha_per_k > 0.0,
+            ResistanceLaw::Platinum(p) => {
+                let (a, b, c) = p.coefficients();
+                a > 0.0 && b <= 0.0 && c <= 0.0
+            }
+            _ => false,
+        }
+    }
+
     /// Whether the resistance rises with temperature (metals, PTC).
     pub fn is_increasing(&self) -> bool {
         let (lo, hi) = self.valid_range_k();

@@ -10,6 +10,9 @@ use crate::report::Check;
 /// room to trim both ways (draftwire's choice, no source).
 pub const MID_TRAVEL_WINDOW: (f64, f64) = (0.25, 0.75);
 
+/// Trimmer positions closer than this are float noise between builds.
+const TIE: f64 = 1e-12;
+
 /// The trimmer checks (none for a pinned trimmer: the trip band judges it).
 pub fn checks(design: &Design, grid: &Grid) -> Vec<Check> {
     if design.detector.trimmer_position.is_some() {
@@ -73,10 +76,10 @@ fn coverage(grid: &Grid) -> Check {
     for (i, t) in grid.trims.iter().enumerate() {
         match t.needed {
             Some(x) => {
-                if lo.is_none_or(|(_, v)| x < v) {
+                if lo.is_none_or(|(_, v)| x < v - TIE) {
                     lo = Some((i, x));
                 }
-                if hi.is_none_or(|(_, v)| x > v) {
+                if hi.is_none_or(|(_, v)| x > v + TIE) {
                     hi = Some((i, x));
                 }
             }
