@@ -438,11 +438,13 @@ pub fn sense_at(
 pub const INVERSION_CHECK_REL: f64 = 1e-9;
 
 /// The airflow at which the sense voltage equals `level_v`, by inverting
-/// the chain instead of searching, for cooling laws with a King's-law form
-/// (King's law, the data-sheet form): the drive gives the element's
+/// the chain instead of searching: the drive gives the element's
 /// resistance, the resistance law its temperature, so the electrical power
-/// and the conductance `G = P/(T − T_amb)` are known, and King's law
-/// inverted gives `U = ((G − A)/B)^(1/n)`.
+/// is known, and the cooling law gives the airflow that carries that power
+/// away at that temperature — in closed form for a King's-law form (King's
+/// law, the data-sheet form: `G = P/(T − T_amb)`, `U = ((G − A)/B)^(1/n)`),
+/// by one 1-D root on the airflow for geometry cooling (its loss rises
+/// with airflow at a fixed temperature).
 ///
 /// Returns `None` when the inversion does not apply or its answer is not
 /// the cold-start operating point (a fold or a bistable element): the
@@ -455,15 +457,27 @@ pub fn airflow_by_inversion(
     env: &Environment,
     level_v: f64,
 ) -> Option<Result<f64, SolveError>> {
-    let king = element.cooling_law().kings_form()?;
+    let cooling = element.cooling_law();
     let law = element.resistance_law();
     let r = drive.resistance_for_sense(level_v)?;
     let t = law.temperature_for_resistance(r)?;
     let rise = t - env.ambient_k;
-    let u = if rise > 0.0 {
-        king.airflow_for_conductance(drive.power_w(r) / rise)
-    } else {
+    let power = drive.power_w(r);
+    let u = if rise.is_nan() || rise <= 0.0 {
         None
+    } else if let Some(king) = cooling.kings_form() {
+        king.airflow_for_conductance(power / rise)
+    } else {
+        // Any other cooling law: the loss at this temperature rises with
+        // airflow, so one 1-D root of loss(T, U) = P on [0, U_max] (each
+        // evaluation one loss, not a whole operating point).
+        let h = |v: f64| cooling.heat_loss_w(t, v, env) - power;
+        let (h0, h1) = (h(0.0), h(MAX_AIRFLOW_M_PER_S));
+        if h0 <= 0.0 && h1 >= 0.0 {
+            brent(h, 0.0, MAX_AIRFLOW_M_PER_S).ok().map(|r| r.x)
+        } else {
+            None
+        }
     };
     match u {
         Some(u) if u <= MAX_AIRFLOW_M_PER_S => {
