@@ -7,6 +7,7 @@ pub mod corners;
 pub mod drift;
 pub mod output;
 pub mod size;
+pub mod spread;
 pub mod stage;
 pub mod switching;
 

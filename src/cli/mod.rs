@@ -3,6 +3,7 @@
 //! failed, 2 bad input or usage).
 
 mod compare;
+mod spread;
 
 use clap::{Parser, Subcommand, ValueEnum};
 use draftwire::design::parse_design;
@@ -38,6 +39,23 @@ enum Command {
         /// Which table to write with --format csv.
         #[arg(long, value_enum, default_value_t = CsvTable::Values)]
         table: CsvTable,
+    },
+    /// Spread of the trip point over part tolerances, ambient and supply: worst case and a seeded Monte Carlo.
+    Spread {
+        /// The design file (TOML).
+        design: PathBuf,
+        /// Number of Monte Carlo trials.
+        #[arg(long, default_value_t = draftwire::analysis::spread::DEFAULT_TRIALS)]
+        trials: u64,
+        /// Seed of the random streams (echoed in the report).
+        #[arg(long, default_value_t = draftwire::analysis::spread::DEFAULT_SEED)]
+        seed: u64,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
+        /// Also write every trial to this CSV file.
+        #[arg(long = "trials-csv")]
+        trials_csv: Option<PathBuf>,
     },
     /// Compare candidate elements side by side in the design's drive and detector.
     Compare {
@@ -125,6 +143,18 @@ pub fn run() -> ExitCode {
             candidates,
             format,
         } => compare::run(&design, &candidates, format),
+        Command::Spread {
+            design,
+            trials,
+            seed,
+            format,
+            trials_csv,
+        } => spread::run(
+            &design,
+            draftwire::analysis::spread::SpreadOptions { trials, seed },
+            format,
+            trials_csv.as_ref(),
+        ),
     }
 }
 

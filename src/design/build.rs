@@ -77,6 +77,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         None => None,
     };
     let ratings = build_ratings(rd, raw.ratings.as_ref())?;
+    let spread = build_spread(rd, raw.spread.as_ref(), &element)?;
 
     Ok(Design {
         title,
@@ -94,6 +95,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         comparator,
         output,
         ratings,
+        spread,
         assumptions: std::mem::take(&mut rd.assumptions),
     })
 }
@@ -384,6 +386,56 @@ fn build_detector(
         hysteresis,
         feedback_ohm,
         input_resistor_ohm,
+    })
+}
+
+/// `[spread]`: the tolerance run's settings; absent keys take
+/// [`SPREAD_DEFAULTS`] (the `spread` report echoes every setting).
+fn build_spread(
+    rd: &mut Reader<'_>,
+    g: Option<&raw::RawSpread>,
+    element: &crate::element::Element,
+) -> R<SpreadSpec> {
+    let Some(g) = g else {
+        return Ok(SPREAD_DEFAULTS);
+    };
+    let cooling_tolerance = match &g.cooling {
+        None => 0.0,
+        Some(v) => {
+            let x = rd.fraction_in(v, "spread.cooling", 0.0, 0.5)?;
+            if x > 0.0
+                && element
+                    .cooling_law()
+                    .with_airflow_term_scaled(1.0)
+                    .is_none()
+            {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "spread.cooling",
+                    "a cooling tolerance scales a fitted airflow term (King's law or the data-sheet form); this element's cooling comes from its geometry and a published correlation: leave spread.cooling out".into(),
+                ));
+            }
+            x
+        }
+    };
+    let distribution = match &g.distribution {
+        None => SPREAD_DEFAULTS.distribution,
+        Some(w) => match rd.word(w, "spread.distribution", &["uniform", "normal"])? {
+            "normal" => SpreadDistribution::Normal,
+            _ => SpreadDistribution::Uniform,
+        },
+    };
+    let min_trimmable = rd.opt(&g.min_trimmable, |r, v| {
+        r.fraction_in(v, "spread.min_trimmable", 0.0, 1.0)
+    })?;
+    let max_false_trip = rd.opt(&g.max_false_trip, |r, v| {
+        r.fraction_in(v, "spread.max_false_trip", 0.0, 1.0)
+    })?;
+    Ok(SpreadSpec {
+        cooling_tolerance,
+        distribution,
+        min_trimmable: min_trimmable.unwrap_or(SPREAD_DEFAULTS.min_trimmable),
+        max_false_trip: max_false_trip.unwrap_or(SPREAD_DEFAULTS.max_false_trip),
     })
 }
 

@@ -394,6 +394,48 @@ pub struct RatingsSpec {
     pub trimmer_power_w: f64,
 }
 
+/// How a tolerance is drawn in the Monte Carlo of `spread`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SpreadDistribution {
+    /// Uniform over ± the tolerance.
+    Uniform,
+    /// Normal with the tolerance as 3σ, truncated at ± the tolerance.
+    Normal,
+}
+
+impl SpreadDistribution {
+    /// Name as written in the file.
+    pub fn name(self) -> &'static str {
+        match self {
+            SpreadDistribution::Uniform => "uniform",
+            SpreadDistribution::Normal => "normal",
+        }
+    }
+}
+
+/// The tolerance run's settings (`[spread]`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct SpreadSpec {
+    /// Model tolerance on the cooling law's airflow term (fraction; 0 =
+    /// none).
+    pub cooling_tolerance: f64,
+    /// Distribution of every tolerance.
+    pub distribution: SpreadDistribution,
+    /// Least share of builds the trimmer must bring to target.
+    pub min_trimmable: f64,
+    /// Largest share of trimmed builds allowed to false-trip.
+    pub max_false_trip: f64,
+}
+
+/// Defaults of `[spread]` (draftwire's choices, no source): no cooling
+/// tolerance, uniform, at least 99 % trimmable, at most 1 % false trips.
+pub const SPREAD_DEFAULTS: SpreadSpec = SpreadSpec {
+    cooling_tolerance: 0.0,
+    distribution: SpreadDistribution::Uniform,
+    min_trimmable: 0.99,
+    max_false_trip: 0.01,
+};
+
 /// A validated design.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Design {
@@ -427,6 +469,8 @@ pub struct Design {
     pub output: Option<OutputSpec>,
     /// Derating policy.
     pub ratings: RatingsSpec,
+    /// The tolerance run's settings.
+    pub spread: SpreadSpec,
     /// Defaults that were applied, in words, for the report.
     pub assumptions: Vec<String>,
 }

@@ -45,6 +45,22 @@ pub struct RawDesign {
     pub output: Option<RawOutput>,
     /// `[ratings]`.
     pub ratings: Option<RawRatings>,
+    /// `[spread]`.
+    pub spread: Option<RawSpread>,
+}
+
+/// `[spread]`: the tolerance run's settings.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawSpread {
+    /// Model tolerance on the cooling law's airflow term.
+    pub cooling: Option<Value>,
+    /// `uniform` or `normal`.
+    pub distribution: Option<Word>,
+    /// Least share of builds the trimmer must bring to target.
+    pub min_trimmable: Option<Value>,
+    /// Largest share of trimmed builds allowed to false-trip.
+    pub max_false_trip: Option<Value>,
 }
 
 /// `[design]`.

@@ -353,6 +353,25 @@ impl CoolingLaw {
         }
     }
 
+    /// This law with its airflow term scaled by `factor` (a model
+    /// tolerance on the cooling: King's `B`, the data-sheet form's flow
+    /// term); `None` for geometry cooling, whose forced term comes from a
+    /// published correlation rather than a fitted constant.
+    pub fn with_airflow_term_scaled(&self, factor: f64) -> Option<CoolingLaw> {
+        let scale = |k: &KingsLaw| KingsLaw {
+            b_w_per_k: k.b_w_per_k * factor,
+            ..*k
+        };
+        match self {
+            CoolingLaw::King(k) => Some(CoolingLaw::King(scale(k))),
+            CoolingLaw::Datasheet(d) => Some(CoolingLaw::Datasheet(DissipationLaw {
+                king: scale(&d.king),
+                ..*d
+            })),
+            CoolingLaw::Geometry(_) => None,
+        }
+    }
+
     /// Heat lost (W) at element temperature `t_k` and airflow `u` (m/s).
     #[inline]
     pub fn heat_loss_w(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {

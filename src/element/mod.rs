@@ -107,6 +107,14 @@ impl Element {
     pub fn max_temperature_k(&self) -> Option<f64> {
         self.max_temperature_k
     }
+    /// A copy of this element with another cooling law (a model tolerance
+    /// on the cooling).
+    pub fn with_cooling_law(&self, cooling: CoolingLaw) -> Self {
+        Self {
+            cooling,
+            ..self.clone()
+        }
+    }
     /// A copy of this element with another resistance law (used by
     /// tolerance corners that scale R0).
     pub fn with_resistance_law(&self, resistance: ResistanceLaw) -> Self {
