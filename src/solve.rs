@@ -481,8 +481,13 @@ pub fn airflow_by_inversion(
     };
     match u {
         Some(u) if u <= MAX_AIRFLOW_M_PER_S => {
-            // Trust it only if it is the operating point an element warming
-            // from cold settles at.
+            // Where the balance has at most one root (`single_root_provable`)
+            // the temperature found is that root: nothing to check.
+            if single_root_provable(element) {
+                return Some(Ok(u));
+            }
+            // Otherwise trust it only if it is the operating point an
+            // element warming from cold settles at.
             let p = operating_point(element, drive, env, u).ok()?;
             let tol = INVERSION_CHECK_REL * level_v.abs().max(f64::MIN_POSITIVE);
             ((p.sense_v - level_v).abs() <= tol).then_some(Ok(u))

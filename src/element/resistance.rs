@@ -278,6 +278,13 @@ impl ResistanceLaw {
     /// the valid range (Brent's method on the monotone law).
     pub fn temperature_for_resistance(&self, r_ohm: f64) -> Option<f64> {
         let (lo, hi) = self.valid_range_k();
+        // The linear law inverts in closed form: T = T0 + (R/R0 − 1)/α.
+        if let ResistanceLaw::Linear(l) = self {
+            if l.alpha_per_k != 0.0 {
+                let t = l.t0_k + (r_ohm / l.r0_ohm - 1.0) / l.alpha_per_k;
+                return (t >= lo && t <= hi).then_some(t);
+            }
+        }
         crate::roots::brent(|t| self.resistance_ohm(t) - r_ohm, lo, hi)
             .ok()
             .map(|r| r.x)
