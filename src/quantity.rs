@@ -1,7 +1,7 @@
 //! Engineering quantities with units, as written in draftwire design files.
 //!
 //! Every dimensional value in a design file is a string that carries its unit
-//! ("82 ohm", "4k7", "0.5 m/s", "25 degC", "5 %"). [`parse_quantity`] turns
+//! ("68 ohm", "4k7", "0.5 m/s", "25 degC", "5 %"). [`parse_quantity`] turns
 //! such a string into an SI `f64` for the [`Dimension`] the field expects; a
 //! missing or wrong unit is an error, never a guess. [`format_engineering`]
 //! writes an SI value back with an SI prefix.
@@ -33,7 +33,7 @@
 //!   `Ohm`, `ohms`, `Ω` (U+2126 or U+03A9); the degree as `°`, `deg` or the
 //!   single characters `℃`/`℉`; a product of units with a space, `·`, `⋅` or `*`
 //!   (`ohm m`, `ohm·m`);
-//! - resistance: `82 ohm`, `82 Ω`, `82R`, `4.7 kohm`, `4.7k`, `1M`,
+//! - resistance: `68 ohm`, `68 Ω`, `68R`, `4.7 kohm`, `4.7k`, `1M`,
 //!   `2.2 mohm` (milliohm only with the ohm written out) and RKM codes with
 //!   the letters R K k M G T (`R47`, `4R7`, `4k7`, `4K7`, `47K`, `1M0`, `2G2`);
 //!   a bare `m` (`1m`, `4m7`) is rejected as ambiguous (milli or mega);
@@ -137,7 +137,7 @@ impl Dimension {
     /// Example spellings for error messages, already quoted.
     pub fn examples(self) -> &'static str {
         match self {
-            Dimension::Resistance => "\"4k7\", \"82 ohm\" or \"4.7 kohm\"",
+            Dimension::Resistance => "\"4k7\", \"68 ohm\" or \"4.7 kohm\"",
             Dimension::Voltage => "\"12 V\" or \"330 mV\"",
             Dimension::Current => "\"35 mA\" or \"1.2 A\"",
             Dimension::Power => "\"0.5 W\" or \"250 mW\"",
@@ -169,7 +169,7 @@ impl fmt::Display for Dimension {
 pub enum QuantityError {
     /// Nothing but whitespace.
     #[error(
-        "empty quantity: write a number followed by its unit, such as \"82 ohm\" or \"0.5 m/s\""
+        "empty quantity: write a number followed by its unit, such as \"68 ohm\" or \"0.5 m/s\""
     )]
     Empty,
     /// No number could be read at the start of the text.
@@ -813,18 +813,18 @@ mod tests {
         // U+03A9 and U+2126 ohm signs, written out.
         all_exact(
             &[
-                "82 ohm",
-                "82ohm",
-                "82 Ohm",
-                "82 ohms",
-                "82 \u{3a9}",
-                "82 \u{2126}",
-                "82Ω",
-                "82R",
-                "82 R",
+                "68 ohm",
+                "68ohm",
+                "68 Ohm",
+                "68 ohms",
+                "68 \u{3a9}",
+                "68 \u{2126}",
+                "68Ω",
+                "68R",
+                "68 R",
             ],
             Resistance,
-            82.0,
+            68.0,
         );
         all_exact(
             &[
@@ -1086,7 +1086,7 @@ mod tests {
             .to_string()
             .contains("missing unit in \"12\": expected a voltage such as \"12 V\""));
         assert!(matches!(
-            parse_quantity("82", Resistance),
+            parse_quantity("68", Resistance),
             Err(QuantityError::MissingUnit { .. })
         ));
     }

@@ -154,8 +154,8 @@ mod tests {
 
     #[test]
     fn points_at_line_and_column() {
-        let src = "a = 1\nr0 = \"82\"\n";
-        let start = src.find("\"82\"").unwrap();
+        let src = "a = 1\nr0 = \"68\"\n";
+        let start = src.find("\"68\"").unwrap();
         let d = Diagnostic::at(
             "x.toml",
             src,
@@ -166,6 +166,6 @@ mod tests {
         assert_eq!((d.line, d.column), (Some(2), Some(6)));
         let text = d.to_string();
         assert!(text.starts_with("x.toml:2:6: r0: missing unit"), "{text}");
-        assert!(text.contains("2 | r0 = \"82\"\n  |      ^^^^"), "{text}");
+        assert!(text.contains("2 | r0 = \"68\"\n  |      ^^^^"), "{text}");
     }
 }

@@ -217,7 +217,7 @@ pub(crate) fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagn
         let key = rest.split('`').next().unwrap_or_default();
         format!("missing required key or table `{key}` (docs/design-file.md lists what it holds)")
     } else if message.contains("untagged enum Scalar") {
-        "expected a number, or a quoted string with its unit such as \"82 ohm\"".to_string()
+        "expected a number, or a quoted string with its unit such as \"68 ohm\"".to_string()
     } else {
         message
     };
