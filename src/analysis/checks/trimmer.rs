@@ -18,10 +18,25 @@ pub fn checks(design: &Design, grid: &Grid) -> Vec<Check> {
     if design.detector.trimmer_position.is_some() {
         return Vec::new();
     }
-    vec![reaches(grid), mid_travel(grid), coverage(grid)]
+    vec![reaches(design, grid), mid_travel(grid), coverage(grid)]
 }
 
-fn reaches(grid: &Grid) -> Check {
+/// What to change when the trimmer cannot reach: the fixed values the file
+/// gives, or — when the divider was sized — the sizing's inputs.
+fn reach_advice(design: &Design) -> &'static str {
+    use crate::design::model::Sizable::Fixed;
+    let d = &design.detector;
+    let any_fixed = [d.top_ohm, d.trimmer_ohm, d.bottom_ohm]
+        .iter()
+        .any(|s| matches!(s, Fixed(_)));
+    if any_fixed {
+        "change the divider values the file fixes (or leave them \"auto\" to be sized)"
+    } else {
+        "the divider was sized for this target, so the element, drive or reference rail cannot give a switching level inside the rail: check the overheat, the drive and the reference rail"
+    }
+}
+
+fn reaches(design: &Design, grid: &Grid) -> Check {
     let name = "trimmer reaches the target";
     let at = "nominal parts at the bench (nominal ambient and supply)";
     match grid.trims[0].needed {
@@ -36,7 +51,10 @@ fn reaches(grid: &Grid) -> Check {
             check.at(at).detail(if ok {
                 format!("target at {pct:.1} % of travel")
             } else {
-                format!("target needs {pct:.1} % of travel, outside 0–100 %: change the divider's fixed resistors (or leave them \"auto\")")
+                format!(
+                    "target needs {pct:.1} % of travel, outside 0–100 %: {}",
+                    reach_advice(design)
+                )
             })
         }
         None => Check::judged("trimmer-reaches-target", name, false)
