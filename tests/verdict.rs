@@ -460,3 +460,21 @@ fn a_design_element_rejects_a_drive_of_its_own() {
     assert!(err.contains("belongs in [drive]"), "{err}");
     assert!(err.contains("w.toml:"), "{err}");
 }
+
+/// A material that contradicts the resistance law is rejected at the
+/// material, and an empty candidate list is an error, not an empty table.
+#[test]
+fn mismatched_material_and_empty_candidates_are_rejected() {
+    let text = example("duct-platinum-wire.toml")
+        .replace("material = \"platinum\"", "material = \"nickel\"");
+    let err = parse_design("duct.toml", &text).unwrap_err().to_string();
+    assert!(
+        err.contains("element.material") && err.contains("platinum"),
+        "{err}"
+    );
+    let design = parse_design("w.toml", &example("workshop-door-draught.toml")).unwrap();
+    let err = draftwire::design::element::parse_candidates("c.toml", "candidate = []\n", &design)
+        .unwrap_err()
+        .to_string();
+    assert!(err.contains("at least one [[candidate]]"), "{err}");
+}

@@ -207,6 +207,15 @@ pub fn parse_candidates(
         }]);
     }
     let raw: raw::RawCandidates = toml::from_str(source).map_err(toml_err)?;
+    if raw.candidate.is_empty() {
+        return Err(Box::new(Diagnostic::at(
+            file,
+            source,
+            None,
+            Some("candidate"),
+            "expected at least one [[candidate]] table, found an empty list".into(),
+        )));
+    }
     let mut out = Vec::with_capacity(raw.candidate.len());
     for (i, c) in raw.candidate.iter().enumerate() {
         let mut rd = Reader {
@@ -299,6 +308,28 @@ fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Ele
         }
         (None, Some(r)) => (resistance(rd, r, p, material)?, None),
     };
+    // A material preset must not contradict a law that fixes the metal.
+    if let (Some(m), Some(w)) = (material, &e.material) {
+        let law_metal = match resistance {
+            ResistanceLaw::Platinum(_) => Some(Material::Platinum),
+            ResistanceLaw::Tungsten(_) => Some(Material::Tungsten),
+            _ => None,
+        };
+        if let Some(lm) = law_metal.filter(|lm| *lm != m) {
+            return Err(rd.err(
+                Some(w.span()),
+                &format!("{p}.material"),
+                format!(
+                    "the {} resistance law is for {}, but material = \"{}\" was given (its emissivity and limit in air would be used with {}'s resistance): leave `material` out or write \"{}\"",
+                    resistance.name(),
+                    lm.name(),
+                    m.name(),
+                    lm.name(),
+                    lm.name()
+                ),
+            ));
+        }
+    }
     if material.is_none() {
         material = match resistance {
             ResistanceLaw::Platinum(_) => Some(Material::Platinum),
