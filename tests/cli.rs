@@ -546,3 +546,31 @@ fn a_key_the_law_does_not_take_is_rejected_where_it_stands() {
             "`diameter` is not used by law \"king\"",
         ));
 }
+
+/// A design path of `-` reads standard input; `-o FILE` writes the result
+/// to the file and nothing to standard output; errors name `<stdin>`.
+#[test]
+fn design_from_stdin_and_output_to_a_file() {
+    let text = std::fs::read_to_string(manifest("examples/server-cabinet-airflow.toml")).unwrap();
+    let dir = std::env::temp_dir().join("draftwire-cli-stdin");
+    std::fs::create_dir_all(&dir).unwrap();
+    let out_file = dir.join("report.json");
+    let out = draftwire()
+        .args(["size", "-", "--format", "json", "-o"])
+        .arg(&out_file)
+        .write_stdin(text)
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(0));
+    assert!(out.stdout.is_empty());
+    let v: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&out_file).unwrap()).unwrap();
+    assert_eq!(v["design_file"], "<stdin>");
+    assert_eq!(v["passed"], true);
+    draftwire()
+        .args(["size", "-"])
+        .write_stdin("x = 1\n")
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("<stdin>:1:1"));
+}

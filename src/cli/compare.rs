@@ -18,7 +18,7 @@ use std::process::ExitCode;
 /// Run `compare`; exit 0 when every candidate was solved, 1 when some
 /// candidate failed to size or solve, 2 on bad input.
 pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> ExitCode {
-    let file = design_path.display().to_string();
+    let file = super::shown_name(design_path);
     let source = match read(design_path) {
         Ok(s) => s,
         Err(e) => {
@@ -53,7 +53,7 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
                 return ExitCode::from(EXIT_INPUT);
             }
         };
-        match parse_candidates(&path.display().to_string(), &text, &design) {
+        match parse_candidates(&super::shown_name(path), &text, &design) {
             Ok(cs) => list.extend(cs),
             Err(d) => {
                 eprintln!("error: {d}");

@@ -23,9 +23,15 @@ use std::process::ExitCode;
     after_help = "Exit status: 0 every check passed, 1 a design check failed, 2 bad input or usage.\nReferences: docs/cli.md, docs/design-file.md, docs/model.md."
 )]
 struct Cli {
+    /// Write the result to this file instead of standard output.
+    #[arg(short = 'o', long = "output", global = true, value_name = "FILE")]
+    output: Option<PathBuf>,
     #[command(subcommand)]
     command: Command,
 }
+
+/// Where results go: `-o FILE`, or standard output.
+static OUTPUT: std::sync::OnceLock<Option<PathBuf>> = std::sync::OnceLock::new();
 
 #[derive(Debug, Subcommand)]
 enum Command {
@@ -99,8 +105,18 @@ const EXIT_DESIGN_FAIL: u8 = 1;
 /// Exit status: bad input or usage.
 const EXIT_INPUT: u8 = 2;
 
-/// Write to stdout; a closed pipe (`draftwire … | head`) is a normal end.
+/// Write the result to `-o FILE` or to stdout; a closed pipe
+/// (`draftwire … | head`) is a normal end.
 fn emit(text: &str) -> bool {
+    if let Some(Some(path)) = OUTPUT.get() {
+        return match std::fs::write(path, text) {
+            Ok(()) => true,
+            Err(e) => {
+                eprintln!("error: -o: cannot write {}: {e}", path.display());
+                false
+            }
+        };
+    }
     let stdout = std::io::stdout();
     let mut lock = stdout.lock();
     match lock.write_all(text.as_bytes()).and_then(|_| lock.flush()) {
@@ -113,7 +129,28 @@ fn emit(text: &str) -> bool {
     }
 }
 
+/// Whether a path argument means standard input.
+fn is_stdin(path: &Path) -> bool {
+    path.as_os_str() == "-"
+}
+
+/// The name a file is shown by in messages and reports (`<stdin>` for `-`).
+fn shown_name(path: &Path) -> String {
+    if is_stdin(path) {
+        "<stdin>".into()
+    } else {
+        path.display().to_string()
+    }
+}
+
+/// Read a design or candidates file; `-` reads standard input.
 fn read(path: &Path) -> Result<String, String> {
+    if is_stdin(path) {
+        let mut s = String::new();
+        return std::io::Read::read_to_string(&mut std::io::stdin(), &mut s)
+            .map(|_| s)
+            .map_err(|e| format!("error: cannot read the design from standard input: {e}"));
+    }
     std::fs::read_to_string(path)
         .map_err(|e| format!("error: cannot read design file {}: {e}", path.display()))
 }
@@ -132,6 +169,7 @@ pub fn run() -> ExitCode {
             return ExitCode::from(code);
         }
     };
+    let _ = OUTPUT.set(cli.output.clone());
     match cli.command {
         Command::Size {
             design,
@@ -166,7 +204,7 @@ fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
             return ExitCode::from(EXIT_INPUT);
         }
     };
-    let file = path.display().to_string();
+    let file = shown_name(path);
     let design = match parse_design(&file, &source) {
         Ok(d) => d,
         Err(d) => {

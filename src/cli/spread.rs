@@ -17,7 +17,7 @@ pub fn run(
     format: Format,
     trials_csv: Option<&PathBuf>,
 ) -> ExitCode {
-    let file = path.display().to_string();
+    let file = super::shown_name(path);
     let source = match read(path) {
         Ok(s) => s,
         Err(e) => {
