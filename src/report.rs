@@ -164,6 +164,13 @@ pub struct Check {
     pub detail: String,
 }
 
+/// A number rounded to 12 significant digits, so that float noise
+/// (`850.0000000000001` for 1123.15 K − 273.15) does not reach a script;
+/// the verdict is taken before rounding.
+fn clean(x: f64) -> f64 {
+    format!("{x:.11e}").parse().unwrap_or(x)
+}
+
 impl Check {
     fn base(id: &str, name: &str, passed: bool) -> Self {
         Self {
@@ -194,19 +201,19 @@ impl Check {
     fn measured(id: &str, name: &str, value: f64, limit: f64, margin: f64, unit: &str) -> Self {
         let finite = value.is_finite() && limit.is_finite() && margin.is_finite();
         Self {
-            value: value.is_finite().then_some(value),
-            limit: limit.is_finite().then_some(limit),
-            margin: margin.is_finite().then_some(margin),
+            value: value.is_finite().then_some(clean(value)),
+            limit: limit.is_finite().then_some(clean(limit)),
+            margin: margin.is_finite().then_some(clean(margin)),
             unit: unit.into(),
             ..Self::base(id, name, finite && margin >= 0.0)
         }
     }
     /// Set the numbers of a judged check (pass/fail stays as judged).
     pub fn numbers(mut self, value: Option<f64>, limit: Option<f64>, unit: &str) -> Self {
-        self.value = value.filter(|v| v.is_finite());
-        self.limit = limit.filter(|v| v.is_finite());
+        self.value = value.filter(|v| v.is_finite()).map(clean);
+        self.limit = limit.filter(|v| v.is_finite()).map(clean);
         self.margin = match (self.value, self.limit) {
-            (Some(v), Some(l)) => Some(l - v),
+            (Some(v), Some(l)) => Some(clean(l - v)),
             _ => None,
         };
         self.unit = unit.into();
@@ -267,10 +274,12 @@ pub struct SupplyBudget {
     pub idle_a: f64,
     /// Current drawn from the input when tripped, A.
     pub tripped_a: f64,
-    /// Largest current the regulated rail draws, A (0 without a regulator).
-    pub regulator_load_a: f64,
-    /// Regulator dissipation at the worst case, W (0 without a regulator).
-    pub regulator_dissipation_w: f64,
+    /// Largest current the regulated rail draws, A (null without a
+    /// regulator).
+    pub regulator_load_a: Option<f64>,
+    /// Regulator dissipation at the worst case, W (null without a
+    /// regulator).
+    pub regulator_dissipation_w: Option<f64>,
     /// Regulator junction temperature at the worst case, °C.
     pub regulator_junction_c: Option<f64>,
 }

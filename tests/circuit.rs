@@ -98,7 +98,7 @@ led_current = "2 mA"
 fn regulator_dissipation_matches_the_data_sheet_formula() {
     let r = run("regulated.toml", REGULATED);
     assert_relative_eq!(
-        r.supply.regulator_dissipation_w,
+        r.supply.regulator_dissipation_w.unwrap(),
         0.5401568,
         max_relative = 1e-9
     );

@@ -134,10 +134,16 @@ impl Grid {
             self.sites[o.site].label, self.builds[o.build].label
         );
         if o.offset_v != 0.0 {
-            s.push_str(&format!("; offset drift {:+.1} mV", 1e3 * o.offset_v));
+            s.push_str(&format!("; offset drift {} mV", signed_mv(o.offset_v)));
         }
         s
     }
+}
+
+/// An offset in mV with a typographic minus, one decimal.
+pub fn signed_mv(v: f64) -> String {
+    let sign = if v < 0.0 { "−" } else { "+" };
+    format!("{sign}{:.1}", 1e3 * v.abs())
 }
 
 fn percent(f: f64) -> String {
@@ -364,8 +370,12 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
             let front = front_at(site);
             let trip_level = front.switching_sense_v(trim.used, idle, src);
             let release_level = front.switching_sense_v(trim.used, idle.other(), src);
+            // The nominal build is also shown without offset drift at every
+            // site (the drift table's plain rows).
             let offsets: &[f64] = if site.ambient_k == bench.ambient_k || offset == 0.0 {
                 &[0.0]
+            } else if bi == 0 {
+                &[0.0, -1.0, 1.0]
             } else {
                 &[-1.0, 1.0]
             };

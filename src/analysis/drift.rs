@@ -22,7 +22,8 @@ fn row(design: &Design, core: &SizedCore, grid: &Grid, o: &Outcome, label: Strin
         corner: grid.builds[o.build].label.clone(),
         offset_v: o.offset_v,
         trip_airflow_m_per_s: u,
-        release_airflow_m_per_s: o.release.airflow(),
+        // A condition that never trips cannot release.
+        release_airflow_m_per_s: u.and(o.release.airflow()),
         shift_m_per_s: u.zip(u_nom).map(|(u, n)| u - n),
         tripped_in_still_air: tripped_still(&o.trip),
         note: note(design, &o.trip, u_nom),
@@ -153,7 +154,7 @@ fn ratiometric_rows(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
             corner: "nominal parts".into(),
             offset_v: 0.0,
             trip_airflow_m_per_s: u,
-            release_airflow_m_per_s: release.airflow(),
+            release_airflow_m_per_s: u.and(release.airflow()),
             shift_m_per_s: u.zip(core.trip_airflow_m_per_s).map(|(u, n)| u - n),
             tripped_in_still_air: tripped_still(&trip),
             note: note(design, &trip, core.trip_airflow_m_per_s),

@@ -1,9 +1,11 @@
-//! The output stage, the supply and the ratings of every part: the circuit
-//! a builder solders around the sized core.
+//! The bill of the circuit a builder solders around the sized core: the
+//! output stage's parts, the comparator, the decoupling, every resistor's
+//! worst dissipation and power rating, the supply budget, and the
+//! stage's cautions.
 //!
 //! The formulas live in `crate::circuit::{comparator, ratings, regulator,
-//! switch}`; this module chooses the values, walks the operating conditions
-//! and turns the results into bill rows, checks and cautions.
+//! switch}`; the stage is planned in `super::stage`; the checks on all of
+//! this are in `super::checks`.
 
 use super::corners::Grid;
 use super::size::{drive_with, element_rail, SizedCore};
@@ -99,7 +101,7 @@ pub fn circuit_section(
         core,
         values,
         &s.values,
-        s.supply.regulator_dissipation_w,
+        s.supply.regulator_dissipation_w.unwrap_or(0.0),
     ));
     s.cautions.extend(stage_cautions(&view));
     s
@@ -472,9 +474,9 @@ fn supply_budget(
             output_v: g.output_v * (1.0 - g.tolerance),
             ..reg
         };
-        budget.regulator_load_a = i_out;
+        budget.regulator_load_a = Some(i_out);
         if let Ok(p) = reg_low.dissipation_w(design.supply.input_max_v, i_out) {
-            budget.regulator_dissipation_w = p;
+            budget.regulator_dissipation_w = Some(p);
             budget.regulator_junction_c = Some(reg.junction_k(ambient_max, p) - 273.15);
         }
     }

@@ -176,8 +176,13 @@ pub struct SpreadReport {
     pub seed: u64,
     /// "uniform" or "normal".
     pub distribution: String,
-    /// What was varied and by how much.
+    /// What was varied and by how much (the ambient and the input as half
+    /// their ranges; see the ranges below).
     pub tolerances: Vec<ToleranceRow>,
+    /// The ambient range drawn over, °C.
+    pub ambient_range_c: [f64; 2],
+    /// The input-voltage range drawn over, V.
+    pub input_range_v: [f64; 2],
     /// Target trip airflow, m/s.
     pub target_airflow_m_per_s: f64,
     /// The band, m/s.
@@ -834,6 +839,8 @@ pub fn spread(
         seed: opts.seed,
         distribution: s.distribution.name().into(),
         tolerances,
+        ambient_range_c: [design.ambient.min_k - 273.15, design.ambient.max_k - 273.15],
+        input_range_v: [design.supply.input_min_v, design.supply.input_max_v],
         target_airflow_m_per_s: design.detector.trip_airflow_m_per_s,
         band_m_per_s: [
             design.detector.trip_band_m_per_s.0,

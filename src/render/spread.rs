@@ -14,6 +14,16 @@ fn pct(x: f64) -> String {
     format!("{:.2} %", 100.0 * x)
 }
 
+/// A section heading underlined to its own width.
+fn heading(o: &mut String, title: &str) {
+    let _ = writeln!(o, "\n{title}\n{}", "─".repeat(title.chars().count()));
+}
+
+/// One aligned line: label, then value.
+fn line(o: &mut String, label: &str, value: &str) {
+    let _ = writeln!(o, "  {label:<44} {value}");
+}
+
 /// Aligned text for people.
 pub fn render_text(r: &SpreadReport) -> String {
     let mut o = String::new();
@@ -26,41 +36,51 @@ pub fn render_text(r: &SpreadReport) -> String {
     );
     let _ = writeln!(
         o,
-        "result        {}",
-        if r.passed {
-            format!(
-                "PASS: {} trimmable (≥ {} wanted), {} false trips (≤ {} allowed)",
-                pct(r.trimmable_share),
-                pct(r.min_trimmable),
-                pct(r.false_trip_share),
-                pct(r.max_false_trip)
-            )
-        } else {
-            format!(
-                "FAIL: {} trimmable (≥ {} wanted), {} false trips (≤ {} allowed)",
-                pct(r.trimmable_share),
-                pct(r.min_trimmable),
-                pct(r.false_trip_share),
-                pct(r.max_false_trip)
-            )
-        }
+        "result        {}: {} trimmable (≥ {} wanted), {} false trips (≤ {} allowed)",
+        if r.passed { "PASS" } else { "FAIL" },
+        pct(r.trimmable_share),
+        pct(r.min_trimmable),
+        pct(r.false_trip_share),
+        pct(r.max_false_trip)
     );
-    let _ = writeln!(o, "\nTolerances drawn\n────────────────");
+    heading(&mut o, "Tolerances drawn");
     for t in &r.tolerances {
-        if t.plus_minus > 0.0 {
-            let _ = writeln!(o, "  {:<22} ± {:.4} {}", t.parameter, t.plus_minus, t.unit);
+        if t.plus_minus <= 0.0 {
+            continue;
         }
+        let value = match t.parameter.as_str() {
+            "ambient" => format!(
+                "{:.1}–{:.1} °C (uniform)",
+                r.ambient_range_c[0], r.ambient_range_c[1]
+            ),
+            "input voltage" => format!(
+                "{:.2}–{:.2} V (uniform)",
+                r.input_range_v[0], r.input_range_v[1]
+            ),
+            "comparator offset" => format!("± {:.1} mV", 1e3 * t.plus_minus),
+            _ => format!(
+                "± {} {}",
+                crate::quantity::format_sig(t.plus_minus, 4),
+                t.unit
+            ),
+        };
+        line(&mut o, &t.parameter, &value);
     }
-    let _ = writeln!(
-        o,
-        "\nTrip airflow with the trimmer at its printed {:.1} % (target {:.3} m/s, band {:.3}–{:.3} m/s)\n──────────────────────────────────────────────",
-        r.trimmer_position_percent, r.target_airflow_m_per_s, r.band_m_per_s[0], r.band_m_per_s[1]
+    heading(
+        &mut o,
+        &format!(
+            "Trip airflow, trimmer at its printed {:.1} % (target {:.3} m/s, band {:.3}–{:.3} m/s)",
+            r.trimmer_position_percent,
+            r.target_airflow_m_per_s,
+            r.band_m_per_s[0],
+            r.band_m_per_s[1]
+        ),
     );
     for (label, v) in ["1 %", "5 %", "50 %", "95 %", "99 %"]
         .iter()
         .zip(&r.trip_airflow_quantiles_text)
     {
-        let _ = writeln!(o, "  {label:>5}  {v}");
+        line(&mut o, &format!("{label} quantile"), v);
     }
     let _ = writeln!(
         o,
@@ -69,66 +89,55 @@ pub fn render_text(r: &SpreadReport) -> String {
         pct(r.never_switches_share)
     );
     let w = &r.worst_case;
-    let _ = writeln!(
-        o,
-        "\nWorst case over the tolerance box ({} conditions)\n────────────────────────────",
-        w.conditions
+    heading(
+        &mut o,
+        &format!(
+            "Worst case over the tolerance box ({} conditions)",
+            w.conditions
+        ),
     );
-    let _ = writeln!(
-        o,
-        "  trips between     {} and {}",
-        w.trip_airflow_min_m_per_s
-            .map_or("— (some vertex never switches)".into(), |u| format!(
-                "{u:.3} m/s"
-            )),
-        w.trip_airflow_max_m_per_s
-            .map_or("— (some vertex never switches)".into(), |u| format!(
-                "{u:.3} m/s"
-            ))
+    // A vertex that never switches puts the extreme beyond every airflow.
+    let low = |x: Option<f64>| x.map_or("below every airflow".into(), |u| format!("{u:.3} m/s"));
+    let high = |x: Option<f64>| x.map_or("above every airflow".into(), |u| format!("{u:.3} m/s"));
+    line(
+        &mut o,
+        "trips between",
+        &format!(
+            "{} and {}",
+            low(w.trip_airflow_min_m_per_s),
+            high(w.trip_airflow_max_m_per_s)
+        ),
     );
-    let _ = writeln!(
-        o,
-        "  releases between  {} and {}",
-        w.release_airflow_min_m_per_s
-            .map_or("— (some vertex never switches)".into(), |u| format!(
-                "{u:.3} m/s"
-            )),
-        w.release_airflow_max_m_per_s
-            .map_or("— (some vertex never switches)".into(), |u| format!(
-                "{u:.3} m/s"
-            ))
+    line(
+        &mut o,
+        "releases between",
+        &format!(
+            "{} and {}",
+            low(w.release_airflow_min_m_per_s),
+            high(w.release_airflow_max_m_per_s)
+        ),
     );
-    let _ = writeln!(
-        o,
-        "  every vertex re-trimmable to target: {}",
-        if w.retrimmable { "yes" } else { "NO" }
+    line(
+        &mut o,
+        "every vertex re-trimmable to target",
+        if w.retrimmable { "yes" } else { "NO" },
     );
-    let _ = writeln!(
-        o,
-        "\nBatch of builds, each trimmed at the bench\n──────────────────────────"
+    heading(&mut o, "Batch of builds, each trimmed at the bench");
+    line(&mut o, "trimmable to target", &pct(r.trimmable_share));
+    line(
+        &mut o,
+        "false trip at some ambient/supply end",
+        &pct(r.false_trip_share),
     );
-    let _ = writeln!(
-        o,
-        "  trimmable to target             {}",
-        pct(r.trimmable_share)
-    );
-    let _ = writeln!(
-        o,
-        "  false trip at some ambient/supply end  {}",
-        pct(r.false_trip_share)
-    );
-    let _ = writeln!(
-        o,
-        "  outside the band at some end    {}",
-        pct(r.out_of_band_share)
+    line(
+        &mut o,
+        "outside the band at some ambient/supply end",
+        &pct(r.out_of_band_share),
     );
     if !r.contributions.is_empty() {
-        let _ = writeln!(
-            o,
-            "\nShare of the trip airflow's variance (first order)\n──────────────────────────"
-        );
+        heading(&mut o, "Share of the trip airflow's variance (first order)");
         for c in &r.contributions {
-            let _ = writeln!(o, "  {:<22} {:>6.1} %", c.parameter, 100.0 * c.share);
+            line(&mut o, &c.parameter, &format!("{:>5.1} %", 100.0 * c.share));
         }
     }
     o

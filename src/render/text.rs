@@ -327,7 +327,10 @@ pub fn render(r: &Report, file: &str) -> String {
                     corners.len() + 1,
                     d.corner,
                     if d.offset_v != 0.0 {
-                        format!(", comparator offset drift {:+.1} mV", 1e3 * d.offset_v)
+                        format!(
+                            ", comparator offset drift {} mV",
+                            crate::analysis::corners::signed_mv(d.offset_v)
+                        )
                     } else {
                         String::new()
                     }
@@ -363,7 +366,7 @@ pub fn render(r: &Report, file: &str) -> String {
         if let Some(tj) = r.supply.regulator_junction_c {
             lines.push((
                 "regulator dissipation (worst)",
-                eng(r.supply.regulator_dissipation_w, "W"),
+                eng(r.supply.regulator_dissipation_w.unwrap_or(0.0), "W"),
             ));
             lines.push(("regulator junction (worst)", format!("{tj:.1} °C")));
         }

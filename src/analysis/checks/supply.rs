@@ -52,7 +52,7 @@ pub(crate) fn checks(design: &Design, budget: &SupplyBudget) -> Vec<Check> {
         g.dropout_v
     ))];
     let name = "regulator junction temperature within its limit";
-    let i_out = budget.regulator_load_a;
+    let i_out = budget.regulator_load_a.unwrap_or(0.0);
     let reg_low = LinearRegulator {
         output_v: v_out_lo,
         ..reg
