@@ -641,3 +641,55 @@ fn every_listed_check_id_is_documented() {
         );
     }
 }
+
+/// `--set` gives the same report as editing the file, apart from the
+/// assumptions that list the override; a bad override points at itself.
+#[test]
+fn set_overrides_match_an_edited_file() {
+    let text = greenhouse();
+    let edited = text.replace("trip_airflow = \"0.5 m/s\"", "trip_airflow = \"0.6 m/s\"");
+    assert_ne!(text, edited);
+    let a = draftwire()
+        .args(["size", "--format", "json"])
+        .arg(write_design("set-edited", &edited))
+        .output()
+        .unwrap();
+    let path = write_design("set-override", &text);
+    let b = draftwire()
+        .args([
+            "size",
+            "--format",
+            "json",
+            "--set",
+            "detector.trip_airflow=0.6 m/s",
+        ])
+        .arg(&path)
+        .output()
+        .unwrap();
+    let mut va: serde_json::Value = serde_json::from_slice(&a.stdout).unwrap();
+    let mut vb: serde_json::Value = serde_json::from_slice(&b.stdout).unwrap();
+    let notes = vb["assumptions"].as_array().unwrap().clone();
+    assert!(notes
+        .iter()
+        .any(|n| n == "detector.trip_airflow = 0.6 m/s (set on the command line)"));
+    for v in [&mut va, &mut vb] {
+        v["assumptions"] = serde_json::Value::Null;
+        v["design_file"] = serde_json::Value::Null;
+    }
+    assert_eq!(va, vb);
+    draftwire()
+        .args(["size", "--set", "detector.trip_airflow=0.6 furlongs"])
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--set:1:23"))
+        .stderr(predicate::str::contains(
+            "detector.trip_airflow=0.6 furlongs",
+        ));
+    draftwire()
+        .args(["size", "--set", "no-equals-sign"])
+        .arg(&path)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("expected KEY=VALUE"));
+}

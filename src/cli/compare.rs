@@ -10,7 +10,6 @@
 use super::{emit, read, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
 use draftwire::analysis::compare::compare;
 use draftwire::design::element::{parse_candidates, Candidate};
-use draftwire::design::parse_design;
 use draftwire::render;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -26,7 +25,7 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
             return ExitCode::from(EXIT_INPUT);
         }
     };
-    let design = match parse_design(&file, &source) {
+    let design = match super::parse_with_overrides(&file, &source) {
         Ok(d) => d,
         Err(d) => {
             eprintln!("error: {d}");

@@ -6,7 +6,6 @@ mod compare;
 mod spread;
 
 use clap::{Parser, Subcommand, ValueEnum};
-use draftwire::design::parse_design;
 use draftwire::render;
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -26,8 +25,25 @@ struct Cli {
     /// Write the result to this file instead of standard output.
     #[arg(short = 'o', long = "output", global = true, value_name = "FILE")]
     output: Option<PathBuf>,
+    /// Override a design-file key: KEY=VALUE with the key dotted as in the
+    /// file and the value as the file would hold it, without quotes
+    /// (repeatable), e.g. --set 'detector.trip_airflow=0.4 m/s'.
+    #[arg(long = "set", global = true, value_name = "KEY=VALUE")]
+    set: Vec<String>,
     #[command(subcommand)]
     command: Command,
+}
+
+/// The `--set` overrides, parsed once.
+static OVERRIDES: std::sync::OnceLock<Vec<draftwire::design::overrides::Override>> =
+    std::sync::OnceLock::new();
+
+/// Read a design with the command line's overrides.
+fn parse_with_overrides(
+    file: &str,
+    source: &str,
+) -> Result<draftwire::design::Design, Box<draftwire::design::Diagnostic>> {
+    draftwire::design::parse_design_with(file, source, OVERRIDES.get().map_or(&[], |v| v))
 }
 
 /// Where results go: `-o FILE`, or standard output.
@@ -170,6 +186,17 @@ pub fn run() -> ExitCode {
         }
     };
     let _ = OUTPUT.set(cli.output.clone());
+    let mut overrides = Vec::new();
+    for arg in &cli.set {
+        match draftwire::design::overrides::Override::parse(arg) {
+            Ok(o) => overrides.push(o),
+            Err(d) => {
+                eprintln!("error: {d}");
+                return ExitCode::from(EXIT_INPUT);
+            }
+        }
+    }
+    let _ = OVERRIDES.set(overrides);
     match cli.command {
         Command::Size {
             design,
@@ -205,7 +232,7 @@ fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
         }
     };
     let file = shown_name(path);
-    let design = match parse_design(&file, &source) {
+    let design = match parse_with_overrides(&file, &source) {
         Ok(d) => d,
         Err(d) => {
             eprintln!("error: {d}");

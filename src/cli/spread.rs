@@ -4,7 +4,6 @@
 use super::{emit, read, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
 use draftwire::analysis::size::size_core;
 use draftwire::analysis::spread::{spread, SpreadOptions, TrialRow};
-use draftwire::design::parse_design;
 use draftwire::render;
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -25,7 +24,7 @@ pub fn run(
             return ExitCode::from(EXIT_INPUT);
         }
     };
-    let design = match parse_design(&file, &source) {
+    let design = match super::parse_with_overrides(&file, &source) {
         Ok(d) => d,
         Err(d) => {
             eprintln!("error: {d}");
