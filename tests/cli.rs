@@ -693,3 +693,22 @@ fn set_overrides_match_an_edited_file() {
         .code(2)
         .stderr(predicate::str::contains("expected KEY=VALUE"));
 }
+
+/// Completions for every shell clap_complete knows and the roff manual are
+/// generated non-empty and name the commands.
+#[test]
+fn completions_and_manual_are_generated() {
+    for shell in ["bash", "zsh", "fish", "powershell", "elvish"] {
+        let out = draftwire().args(["completions", shell]).output().unwrap();
+        assert_eq!(out.status.code(), Some(0), "{shell}");
+        let text = String::from_utf8(out.stdout).unwrap();
+        assert!(
+            text.contains("spread") && text.contains("compare"),
+            "{shell}"
+        );
+    }
+    let out = draftwire().arg("man").output().unwrap();
+    assert_eq!(out.status.code(), Some(0));
+    let roff = String::from_utf8(out.stdout).unwrap();
+    assert!(roff.contains(".TH draftwire 1") && roff.contains("spread"));
+}

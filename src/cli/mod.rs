@@ -19,7 +19,7 @@ use std::process::ExitCode;
     version,
     about,
     long_about = None,
-    after_help = "Exit status: 0 every check passed, 1 a design check failed, 2 bad input or usage.\nReferences: docs/cli.md, docs/design-file.md, docs/model.md."
+    after_help = "Exit status: 0 every check passed, 1 a design check failed, 2 bad input or usage.\nThe manual: `draftwire man` (roff); the design-file, CLI and model references are the docs/ folder of the source distribution."
 )]
 struct Cli {
     /// Write the result to this file instead of standard output.
@@ -79,6 +79,13 @@ enum Command {
         #[arg(long = "trials-csv")]
         trials_csv: Option<PathBuf>,
     },
+    /// Print shell completions for bash, zsh, fish, powershell or elvish.
+    Completions {
+        /// The shell.
+        shell: clap_complete::Shell,
+    },
+    /// Print the manual page (roff), e.g. `draftwire man > draftwire.1`.
+    Man,
     /// Compare candidate elements side by side in the design's drive and detector.
     Compare {
         /// The design file (TOML); its own element is the first candidate.
@@ -145,6 +152,11 @@ fn emit(text: &str) -> bool {
     }
 }
 
+/// Exit 0 when the output was written, 2 when it could not be.
+fn exit_after(written: bool) -> ExitCode {
+    ExitCode::from(if written { EXIT_PASS } else { EXIT_INPUT })
+}
+
 /// Whether a path argument means standard input.
 fn is_stdin(path: &Path) -> bool {
     path.as_os_str() == "-"
@@ -208,6 +220,23 @@ pub fn run() -> ExitCode {
             candidates,
             format,
         } => compare::run(&design, &candidates, format),
+        Command::Completions { shell } => {
+            let mut cmd = <Cli as clap::CommandFactory>::command();
+            let mut buf = Vec::new();
+            clap_complete::generate(shell, &mut cmd, "draftwire", &mut buf);
+            exit_after(emit(&String::from_utf8_lossy(&buf)))
+        }
+        Command::Man => {
+            let cmd = <Cli as clap::CommandFactory>::command();
+            let mut buf = Vec::new();
+            match clap_mangen::Man::new(cmd).render(&mut buf) {
+                Ok(()) => exit_after(emit(&String::from_utf8_lossy(&buf))),
+                Err(e) => {
+                    eprintln!("error: cannot render the manual: {e}");
+                    ExitCode::from(EXIT_INPUT)
+                }
+            }
+        }
         Command::Spread {
             design,
             trials,
