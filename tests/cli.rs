@@ -712,3 +712,21 @@ fn completions_and_manual_are_generated() {
     let roff = String::from_utf8(out.stdout).unwrap();
     assert!(roff.contains(".TH draftwire 1") && roff.contains("spread"));
 }
+
+/// With `--format json`, bad input still gives JSON on stdout (an error
+/// object with its position) beside the message on stderr, and exit 2.
+#[test]
+fn bad_input_with_json_gives_a_json_error_object() {
+    let out = draftwire()
+        .args(["size", "-", "--format", "json"])
+        .write_stdin("[ambient]\nnominal = 20\n")
+        .output()
+        .unwrap();
+    assert_eq!(out.status.code(), Some(2));
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(v["passed"], false);
+    assert_eq!(v["error"]["kind"], "input");
+    assert_eq!(v["error"]["file"], "<stdin>");
+    assert!(v["error"]["line"].is_number());
+    assert!(!out.stderr.is_empty());
+}

@@ -20,17 +20,11 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
     let file = super::shown_name(design_path);
     let source = match read(design_path) {
         Ok(s) => s,
-        Err(e) => {
-            eprintln!("{e}");
-            return ExitCode::from(EXIT_INPUT);
-        }
+        Err(e) => return super::input_error(format, &e, None),
     };
     let design = match super::parse_with_overrides(&file, &source) {
         Ok(d) => d,
-        Err(d) => {
-            eprintln!("error: {d}");
-            return ExitCode::from(EXIT_INPUT);
-        }
+        Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
     };
     // The design's own element is the first candidate, as already read.
     let own_label = design
@@ -47,17 +41,11 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
     for path in candidate_files {
         let text = match read(path) {
             Ok(s) => s,
-            Err(e) => {
-                eprintln!("{e}");
-                return ExitCode::from(EXIT_INPUT);
-            }
+            Err(e) => return super::input_error(format, &e, None),
         };
         match parse_candidates(&super::shown_name(path), &text, &design) {
             Ok(cs) => list.extend(cs),
-            Err(d) => {
-                eprintln!("error: {d}");
-                return ExitCode::from(EXIT_INPUT);
-            }
+            Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
         }
     }
     let cmp = match compare(&design, &list) {

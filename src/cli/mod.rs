@@ -152,6 +152,37 @@ fn emit(text: &str) -> bool {
     }
 }
 
+/// Bad input: the message on stderr and exit 2; with `--format json` also a
+/// JSON error object on stdout, so a script always gets JSON.
+fn input_error(
+    format: Format,
+    message: &str,
+    diag: Option<&draftwire::design::Diagnostic>,
+) -> ExitCode {
+    eprintln!("{message}");
+    if format == Format::Json {
+        let error = serde_json::json!({
+            "kind": "input",
+            "message": message.trim_start_matches("error: "),
+            "file": diag.map(|d| d.file.clone()),
+            "line": diag.and_then(|d| d.line),
+            "column": diag.and_then(|d| d.column),
+            "field": diag.and_then(|d| d.field.clone()),
+        });
+        let doc = serde_json::json!({
+            "schema_version": draftwire::report::SCHEMA_VERSION,
+            "tool_version": env!("CARGO_PKG_VERSION"),
+            "passed": false,
+            "error": error,
+        });
+        let _ = emit(&format!(
+            "{}\n",
+            serde_json::to_string_pretty(&doc).unwrap_or_default()
+        ));
+    }
+    ExitCode::from(EXIT_INPUT)
+}
+
 /// Exit 0 when the output was written, 2 when it could not be.
 fn exit_after(written: bool) -> ExitCode {
     ExitCode::from(if written { EXIT_PASS } else { EXIT_INPUT })
@@ -202,10 +233,7 @@ pub fn run() -> ExitCode {
     for arg in &cli.set {
         match draftwire::design::overrides::Override::parse(arg) {
             Ok(o) => overrides.push(o),
-            Err(d) => {
-                eprintln!("error: {d}");
-                return ExitCode::from(EXIT_INPUT);
-            }
+            Err(d) => return input_error(Format::Text, &format!("error: {d}"), Some(&d)),
         }
     }
     let _ = OVERRIDES.set(overrides);
@@ -255,18 +283,12 @@ pub fn run() -> ExitCode {
 fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
     let source = match read(path) {
         Ok(s) => s,
-        Err(e) => {
-            eprintln!("{e}");
-            return ExitCode::from(EXIT_INPUT);
-        }
+        Err(e) => return input_error(format, &e, None),
     };
     let file = shown_name(path);
     let design = match parse_with_overrides(&file, &source) {
         Ok(d) => d,
-        Err(d) => {
-            eprintln!("error: {d}");
-            return ExitCode::from(EXIT_INPUT);
-        }
+        Err(d) => return input_error(format, &format!("error: {d}"), Some(&d)),
     };
     // A design that cannot be sized still gets a full report whose one
     // failing check says why (and the reason on stderr).

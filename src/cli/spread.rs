@@ -19,17 +19,11 @@ pub fn run(
     let file = super::shown_name(path);
     let source = match read(path) {
         Ok(s) => s,
-        Err(e) => {
-            eprintln!("{e}");
-            return ExitCode::from(EXIT_INPUT);
-        }
+        Err(e) => return super::input_error(format, &e, None),
     };
     let design = match super::parse_with_overrides(&file, &source) {
         Ok(d) => d,
-        Err(d) => {
-            eprintln!("error: {d}");
-            return ExitCode::from(EXIT_INPUT);
-        }
+        Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
     };
     if opts.trials == 0 {
         eprintln!("error: --trials: expected at least 1 trial, found 0");
