@@ -587,6 +587,12 @@ pub fn parse_quantity(text: &str, expected: Dimension) -> Result<f64, QuantityEr
     if text.is_empty() {
         return Err(QuantityError::Empty);
     }
+    // A power written as builders buy it: "1/4 W", "1/8 W".
+    if expected == Dimension::Power {
+        if let Some(v) = fraction_power(text) {
+            return v;
+        }
+    }
     let norm = normalize(text);
 
     if let Some(rkm) = split_rkm(&norm) {
@@ -712,6 +718,29 @@ pub fn format_sig(value: f64, significant_digits: usize) -> String {
     } else {
         text
     }
+}
+
+/// `"a/b UNIT"` with whole a and b > 0: the fraction times one UNIT;
+/// `None` when the text is not a fraction.
+fn fraction_power(text: &str) -> Option<Result<f64, QuantityError>> {
+    let (num, rest) = text.split_once('/')?;
+    let num = num.trim();
+    if num.is_empty() || !num.chars().all(|c| c.is_ascii_digit()) {
+        return None;
+    }
+    let rest = rest.trim_start();
+    let digits: String = rest.chars().take_while(char::is_ascii_digit).collect();
+    if digits.is_empty() {
+        return None;
+    }
+    let unit = rest[digits.len()..].trim();
+    let (a, b): (f64, f64) = (num.parse().ok()?, digits.parse().ok()?);
+    if b == 0.0 {
+        return Some(Err(QuantityError::MalformedNumber {
+            text: text.to_string(),
+        }));
+    }
+    Some(parse_quantity(&format!("1 {unit}"), Dimension::Power).map(|w| w * a / b))
 }
 
 /// Write `value_si` with an SI prefix (p n µ m k M G; SI Brochure, 9th ed.,
@@ -1223,5 +1252,18 @@ mod tests {
             let back = parse_quantity(&text, dim).map_err(|e| TestCaseError::fail(e.to_string()))?;
             assert_relative_eq!(back, value, max_relative = 1e-9);
         }
+    }
+
+    #[test]
+    fn power_fractions_as_builders_write_them() {
+        // 1/4 W = 0.25 W, 1/8 W = 0.125 W, 1/16 W = 0.0625 W (arithmetic).
+        assert_eq!(parse_quantity("1/4 W", Power).unwrap(), 0.25);
+        assert_eq!(parse_quantity("1/8W", Power).unwrap(), 0.125);
+        assert_eq!(parse_quantity("1/16 W", Power).unwrap(), 0.0625);
+        assert_eq!(parse_quantity("1/2 kW", Power).unwrap(), 500.0);
+        assert!(parse_quantity("1/0 W", Power).is_err());
+        assert!(parse_quantity("1/4 V", Power).is_err());
+        // Only powers take fractions.
+        assert!(parse_quantity("1/4 V", Voltage).is_err());
     }
 }

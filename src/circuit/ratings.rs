@@ -9,6 +9,29 @@ use super::value::{finite, non_negative, ValueError};
 pub const STANDARD_RESISTOR_POWER_W: &[f64] =
     &[0.063, 0.1, 0.125, 0.25, 0.5, 0.6, 1.0, 2.0, 3.0, 5.0];
 
+/// A power rating as builders buy it: the through-hole fractions (1/16 W,
+/// 1/10 W, 1/8 W, 1/4 W, 1/2 W) and whole watts; other values in W with
+/// three significant figures.
+pub fn bench_power_text(w: f64) -> String {
+    const FRACTIONS: [(f64, &str); 5] = [
+        (0.0625, "1/16 W"),
+        (0.1, "1/10 W"),
+        (0.125, "1/8 W"),
+        (0.25, "1/4 W"),
+        (0.5, "1/2 W"),
+    ];
+    // The standard list writes 1/16 W as 0.063 W.
+    for (v, text) in FRACTIONS {
+        if (w - v).abs() <= 0.01 * v {
+            return text.into();
+        }
+    }
+    if w >= 1.0 && (w - w.round()).abs() < 1e-9 {
+        return format!("{} W", w.round());
+    }
+    format!("{} W", crate::quantity::format_sig(w, 3))
+}
+
 /// Share of the (temperature-derated) rating a resistor is run at, at most:
 /// 50 % (common practice, no source; 50–60 % is the usual figure).
 pub const DEFAULT_RESISTOR_DERATING: f64 = 0.5;
@@ -345,5 +368,16 @@ mod tests {
             capacitor_rating_for(5.0, 0.9),
             Err(RatingError::MarginFactor(_))
         ));
+    }
+
+    #[test]
+    fn bench_power_names() {
+        // The through-hole ratings as sold (common practice, no source).
+        assert_eq!(bench_power_text(0.063), "1/16 W");
+        assert_eq!(bench_power_text(0.125), "1/8 W");
+        assert_eq!(bench_power_text(0.25), "1/4 W");
+        assert_eq!(bench_power_text(0.5), "1/2 W");
+        assert_eq!(bench_power_text(1.0), "1 W");
+        assert_eq!(bench_power_text(0.6), "0.6 W");
     }
 }

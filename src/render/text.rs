@@ -284,8 +284,12 @@ pub fn render(r: &Report, file: &str) -> String {
             _ => String::new(),
         };
         let rating = match v.rating_w {
-            Some(w) if v.rating.is_empty() => eng(w, "W"),
-            Some(w) => format!("{} · {}", eng(w, "W"), v.rating),
+            Some(w) if v.rating.is_empty() => crate::circuit::ratings::bench_power_text(w),
+            Some(w) => format!(
+                "{} · {}",
+                crate::circuit::ratings::bench_power_text(w),
+                v.rating
+            ),
             None => v.rating.clone(),
         };
         let series = if v.e_series.is_empty() {
