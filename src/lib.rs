@@ -40,3 +40,4 @@ pub mod render;
 pub mod report;
 pub mod roots;
 pub mod solve;
+pub mod starter;

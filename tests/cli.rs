@@ -730,3 +730,42 @@ fn bad_input_with_json_gives_a_json_error_object() {
     assert!(v["error"]["line"].is_number());
     assert!(!out.stderr.is_empty());
 }
+
+/// `draftwire new` writes a starter design that `size` reads (exit 0 or 1,
+/// never 2) for every element and load, and refuses to overwrite a file
+/// unless --force is given.
+#[test]
+fn starter_designs_are_accepted_and_not_overwritten() {
+    let dir = std::env::temp_dir().join(format!("draftwire-new-{}", std::process::id()));
+    std::fs::create_dir_all(&dir).unwrap();
+    for element in ["lamp", "wire", "thermistor"] {
+        for load in ["led", "buzzer", "relay"] {
+            let f = dir.join(format!("{element}-{load}.toml"));
+            let _ = std::fs::remove_file(&f);
+            draftwire()
+                .args(["new", "--element", element, "--load", load, "-o"])
+                .arg(&f)
+                .assert()
+                .code(0);
+            let out = draftwire().arg("size").arg(&f).output().unwrap();
+            let code = out.status.code().unwrap();
+            assert!(
+                code == 0 || code == 1,
+                "{element}/{load}: exit {code}: {}",
+                String::from_utf8_lossy(&out.stderr)
+            );
+        }
+    }
+    let f = dir.join("wire-led.toml");
+    draftwire()
+        .args(["new", "-o"])
+        .arg(&f)
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("--force"));
+    draftwire()
+        .args(["new", "--force", "-o"])
+        .arg(&f)
+        .assert()
+        .code(0);
+}

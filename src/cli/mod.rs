@@ -79,6 +79,18 @@ enum Command {
         #[arg(long = "trials-csv")]
         trials_csv: Option<PathBuf>,
     },
+    /// Write a commented starter design (example values) that `size` accepts.
+    New {
+        /// The element it starts from.
+        #[arg(long, value_enum, default_value_t = NewElement::Wire)]
+        element: NewElement,
+        /// The load it drives.
+        #[arg(long, value_enum, default_value_t = NewLoad::Led)]
+        load: NewLoad,
+        /// Overwrite the file given with -o if it exists.
+        #[arg(long)]
+        force: bool,
+    },
     /// Print shell completions for bash, zsh, fish, powershell or elvish.
     Completions {
         /// The shell.
@@ -97,6 +109,26 @@ enum Command {
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
     },
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+enum NewElement {
+    /// A bare lamp filament (rating and cold resistance).
+    Lamp,
+    /// A fine metal wire (geometry cooling).
+    Wire,
+    /// A self-heated NTC thermistor (data-sheet constants).
+    Thermistor,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+enum NewLoad {
+    /// An indicator LED.
+    Led,
+    /// A DC buzzer.
+    Buzzer,
+    /// A relay coil.
+    Relay,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -248,6 +280,31 @@ pub fn run() -> ExitCode {
             candidates,
             format,
         } => compare::run(&design, &candidates, format),
+        Command::New {
+            element,
+            load,
+            force,
+        } => {
+            use draftwire::starter::{starter_design, StarterElement, StarterLoad};
+            if let Some(p) = cli.output.as_ref().filter(|p| p.exists() && !force) {
+                eprintln!(
+                    "error: {} exists: draftwire new does not overwrite a file unless --force is given",
+                    p.display()
+                );
+                return ExitCode::from(EXIT_INPUT);
+            }
+            let e = match element {
+                NewElement::Lamp => StarterElement::Lamp,
+                NewElement::Wire => StarterElement::Wire,
+                NewElement::Thermistor => StarterElement::Thermistor,
+            };
+            let l = match load {
+                NewLoad::Led => StarterLoad::Led,
+                NewLoad::Buzzer => StarterLoad::Buzzer,
+                NewLoad::Relay => StarterLoad::Relay,
+            };
+            exit_after(emit(&starter_design(e, l)))
+        }
         Command::Completions { shell } => {
             let mut cmd = <Cli as clap::CommandFactory>::command();
             let mut buf = Vec::new();
