@@ -769,3 +769,76 @@ fn starter_designs_are_accepted_and_not_overwritten() {
         .assert()
         .code(0);
 }
+
+/// A 20-point sweep: 20 rows, the end point exact, a failing point kept as
+/// a row; `--hold-values` keeps the sized parts constant while the sweep
+/// without it re-sizes them; an empty range is refused before running.
+#[test]
+fn sweep_rows_ends_and_held_values() {
+    let ex = manifest("examples/server-cabinet-airflow.toml");
+    let out = draftwire()
+        .args(["sweep"])
+        .arg(&ex)
+        .args([
+            "detector.trip_airflow",
+            "0.5 m/s",
+            "1.5 m/s",
+            "--points",
+            "20",
+            "--format",
+            "json",
+        ])
+        .output()
+        .unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let rows = v["rows"].as_array().unwrap();
+    assert_eq!(rows.len(), 20);
+    assert_eq!(rows[0]["values"][0], 0.5);
+    assert_eq!(rows[19]["values"][0], 1.5);
+    assert_eq!(v["axes"][0]["column"], "detector.trip_airflow_m_per_s");
+    // Targets near the band's edges fail trip-band and stay rows.
+    assert!(rows.iter().any(|r| r["passed"] == false));
+    assert_eq!(out.status.code(), Some(1));
+    let rs1 = |r: &serde_json::Value| {
+        r["parts"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .find(|p| p["designator"] == "RR1")
+            .unwrap()["value"]
+            .as_f64()
+            .unwrap()
+    };
+    let resized: std::collections::BTreeSet<u64> = rows.iter().map(|r| rs1(r).to_bits()).collect();
+    assert!(resized.len() > 1, "each point is sized afresh");
+    let out = draftwire()
+        .args(["sweep"])
+        .arg(&ex)
+        .args([
+            "detector.trip_airflow",
+            "0.5 m/s",
+            "1.5 m/s",
+            "--points",
+            "5",
+            "--hold-values",
+            "--format",
+            "json",
+        ])
+        .output()
+        .unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    let held: std::collections::BTreeSet<u64> = v["rows"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|r| rs1(r).to_bits())
+        .collect();
+    assert_eq!(held.len(), 1, "parts held");
+    draftwire()
+        .args(["sweep"])
+        .arg(&ex)
+        .args(["supply.input", "12 V", "12 V"])
+        .assert()
+        .code(2)
+        .stderr(predicate::str::contains("the range is empty"));
+}

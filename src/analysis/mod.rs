@@ -9,6 +9,7 @@ pub mod output;
 pub mod size;
 pub mod spread;
 pub mod stage;
+pub mod sweep;
 pub mod switching;
 
 use crate::design::Design;

@@ -4,6 +4,7 @@
 
 mod compare;
 mod spread;
+mod sweep;
 
 use clap::{Parser, Subcommand, ValueEnum};
 use draftwire::render;
@@ -78,6 +79,26 @@ enum Command {
         /// Also write every trial to this CSV file.
         #[arg(long = "trials-csv")]
         trials_csv: Option<PathBuf>,
+    },
+    /// Step a design-file key over a range (a second key makes a grid), sizing and checking each point.
+    Sweep {
+        /// The design file (TOML).
+        design: PathBuf,
+        /// KEY FROM TO, e.g. detector.trip_airflow "0.2 m/s" "0.6 m/s"; twice for a grid.
+        #[arg(num_args = 3..=6, required = true)]
+        spec: Vec<String>,
+        /// Points per key (the last one is exactly TO).
+        #[arg(long, default_value_t = 11)]
+        points: usize,
+        /// Geometric steps instead of equal ones.
+        #[arg(long)]
+        log: bool,
+        /// Size the design once at its own values and sweep that built circuit.
+        #[arg(long = "hold-values")]
+        hold_values: bool,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
     },
     /// Write a commented starter design (example values) that `size` accepts.
     New {
@@ -280,6 +301,14 @@ pub fn run() -> ExitCode {
             candidates,
             format,
         } => compare::run(&design, &candidates, format),
+        Command::Sweep {
+            design,
+            spec,
+            points,
+            log,
+            hold_values,
+            format,
+        } => sweep::run(&design, &spec, points, log, hold_values, format),
         Command::New {
             element,
             load,

@@ -18,6 +18,8 @@ pub struct Override {
     pub key: String,
     /// The value as typed.
     pub value: String,
+    /// Remove the key instead of setting it (`KEY=` with nothing after).
+    pub remove: bool,
 }
 
 impl Override {
@@ -52,6 +54,7 @@ impl Override {
         Ok(Self {
             key: key.to_string(),
             value: v.trim().to_string(),
+            remove: v.trim().is_empty(),
         })
     }
 
@@ -151,6 +154,13 @@ pub fn apply(source: &str, overrides: &[Override]) -> Patched {
     let mut landed: Vec<(usize, Override)> = Vec::new();
     for o in overrides {
         let (table, key) = o.key.rsplit_once('.').unwrap_or(("", &o.key));
+        if o.remove {
+            if let Some(r) = find_key_line(&text, table, key) {
+                let end = (r.end + 1).min(text.len());
+                text.replace_range(r.start..end, "");
+            }
+            continue;
+        }
         let new_line = format!("{key} = {}", o.literal());
         let at = if let Some(r) = find_key_line(&text, table, key) {
             text.replace_range(r.clone(), &new_line);
@@ -167,6 +177,14 @@ pub fn apply(source: &str, overrides: &[Override]) -> Patched {
     }
     // Lines are counted in the final text (later patches may shift earlier
     // ones only when inserted above them; re-find each by its content).
+    let removed: Vec<Patch> = overrides
+        .iter()
+        .filter(|o| o.remove)
+        .map(|o| Patch {
+            line: 0,
+            over: o.clone(),
+        })
+        .collect();
     let patches = landed
         .into_iter()
         .map(|(_, o)| {
@@ -175,6 +193,7 @@ pub fn apply(source: &str, overrides: &[Override]) -> Patched {
             let line = text[..r.start].matches('\n').count() + 1;
             Patch { line, over: o }
         })
+        .chain(removed)
         .collect();
     Patched { text, patches }
 }

@@ -5,4 +5,5 @@ pub mod compare;
 pub mod csv;
 pub mod json;
 pub mod spread;
+pub mod sweep;
 pub mod text;
