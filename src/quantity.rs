@@ -263,7 +263,7 @@ const PREFIXABLE: [(&str, Dimension); 8] = [
 ];
 
 /// Units matched literally (after normalisation), each with its meaning.
-const EXACT: [(&str, Dimension, Conv); 20] = [
+const EXACT: [(&str, Dimension, Conv); 22] = [
     ("K", Dimension::Temperature, Conv::Pow10(0)),
     ("K", Dimension::TemperatureDifference, Conv::Pow10(0)),
     ("degC", Dimension::Temperature, Conv::Celsius),
@@ -283,6 +283,11 @@ const EXACT: [(&str, Dimension, Conv); 20] = [
     ("km/h", Dimension::Velocity, Conv::Ratio(5.0, 18.0)),
     // 1 ft/min = 0.3048/60 m/s = 508/100000 m/s (yard and pound agreement, 1959).
     ("ft/min", Dimension::Velocity, Conv::Ratio(508.0, 100_000.0)),
+    // fpm is the HVAC trade's spelling of ft/min.
+    ("fpm", Dimension::Velocity, Conv::Ratio(508.0, 100_000.0)),
+    // 1 mph = 1609.344 m/3600 s = 0.44704 m/s = 44704/100000 m/s exactly
+    // (international mile, yard and pound agreement, 1959).
+    ("mph", Dimension::Velocity, Conv::Ratio(44_704.0, 100_000.0)),
     ("cm", Dimension::Length, Conv::Pow10(-2)),
     // 1 in = 0.0254 m = 254/10000 m (yard and pound agreement, 1959).
     ("in", Dimension::Length, Conv::Ratio(254.0, 10_000.0)),
@@ -948,7 +953,9 @@ mod tests {
         all_exact(&["36 km/h"], Velocity, 10.0);
         // 100 ft/min = 100·0.3048/60 = 0.508 m/s (yard and pound agreement,
         // 1959: 1 ft = 0.3048 m exactly).
-        all_exact(&["100 ft/min"], Velocity, 0.508);
+        all_exact(&["100 ft/min", "100 fpm"], Velocity, 0.508);
+        // 1 mph = 0.44704 m/s exactly (international mile = 1609.344 m).
+        all_exact(&["1 mph"], Velocity, 0.44704);
         all_exact(&["1 ft/min"], Velocity, 0.00508);
     }
 

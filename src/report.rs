@@ -118,6 +118,24 @@ pub struct ValueRow {
 }
 
 impl ValueRow {
+    /// This row with every number rounded to 12 significant digits (no
+    /// `0.30000000000000004` where 0.3 is meant; a chosen E-series value is
+    /// exact to that precision).
+    pub fn cleaned(mut self) -> Self {
+        for x in [
+            &mut self.value_ohm,
+            &mut self.value_f,
+            &mut self.value_a,
+            &mut self.value_v,
+            &mut self.exact,
+            &mut self.rating_w,
+            &mut self.dissipation_w,
+        ] {
+            *x = x.map(clean);
+        }
+        self
+    }
+
     /// A fixed resistor's line of the bill: its value in ohm, RKM text
     /// (IEC 60062), the series it was taken from and the reason.
     pub fn resistor(

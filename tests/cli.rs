@@ -842,3 +842,48 @@ fn sweep_rows_ends_and_held_values() {
         .code(2)
         .stderr(predicate::str::contains("the range is empty"));
 }
+
+/// The text reports fit the terminal: `compare` puts candidates side by
+/// side when that fits `COLUMNS`, one block per candidate otherwise; `size`
+/// wraps its running text to `COLUMNS`.
+#[test]
+fn text_fits_the_terminal_width() {
+    let run = |cols: &str, args: &[&str]| {
+        let out = draftwire()
+            .env("COLUMNS", cols)
+            .args(args)
+            .output()
+            .unwrap();
+        String::from_utf8(out.stdout).unwrap()
+    };
+    let design = manifest("examples/workshop-door-draught.toml");
+    let cands = manifest("examples/candidates/element-candidates.toml");
+    let args = [
+        "compare",
+        design.to_str().unwrap(),
+        "--candidates",
+        cands.to_str().unwrap(),
+    ];
+    let wide = run("400", &args);
+    let narrow = run("80", &args);
+    assert!(wide
+        .lines()
+        .any(|l| l.contains("nickel wire 25 um") && l.contains("Pt100 chip")));
+    assert!(narrow.lines().any(|l| l == "Pt100 chip"));
+    assert!(!narrow
+        .lines()
+        .any(|l| l.contains("nickel wire 25 um") && l.contains("Pt100 chip")));
+    let text = run("60", &["size", design.to_str().unwrap()]);
+    // The cautions are running text: every line of that section fits.
+    let cautions: Vec<&str> = text
+        .lines()
+        .skip_while(|l| *l != "Cautions")
+        .skip(2)
+        .take_while(|l| !l.is_empty())
+        .collect();
+    assert!(cautions.len() > 3);
+    assert!(
+        cautions.iter().all(|l| l.chars().count() <= 60),
+        "{cautions:#?}"
+    );
+}

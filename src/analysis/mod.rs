@@ -33,6 +33,7 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
     checks.extend(checks::ratings::checks(design, &section.rated));
     checks.extend(checks::supply::checks(design, &section.supply));
     values.extend(section.values);
+    let values: Vec<_> = values.into_iter().map(|v| v.cleaned()).collect();
     let mut cautions = assemble::cautions(design, &core);
     cautions.extend(section.cautions);
     let element = format!(

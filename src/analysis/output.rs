@@ -661,7 +661,15 @@ fn rate_resistors(
         let chosen = if trimmer {
             Ok(design.ratings.trimmer_power_w)
         } else {
-            resistor_rating_for(l.watts, ambient_max, derating)
+            // At least the builder's smallest rating (`ratings.resistor_min`).
+            let floor = design.ratings.resistor_min_w.unwrap_or(0.0);
+            resistor_rating_for(l.watts, ambient_max, derating).map(|r| {
+                if r < floor {
+                    floor
+                } else {
+                    r
+                }
+            })
         };
         let margin = |r: f64| {
             if trimmer {

@@ -56,7 +56,7 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
         }
     };
     let text = match format {
-        Format::Text => render::compare::render_text(&cmp),
+        Format::Text => render::compare::render_text_with_width(&cmp, super::terminal_width()),
         Format::Json => render::compare::render_json(&cmp),
         Format::Csv => render::compare::render_csv(&cmp),
     };

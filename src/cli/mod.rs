@@ -236,6 +236,16 @@ fn input_error(
     ExitCode::from(EXIT_INPUT)
 }
 
+/// The terminal's width for text reports: `COLUMNS` when it holds a
+/// sensible number (40–400), else 100.
+fn terminal_width() -> usize {
+    std::env::var("COLUMNS")
+        .ok()
+        .and_then(|c| c.trim().parse::<usize>().ok())
+        .filter(|w| (40..=400).contains(w))
+        .unwrap_or(render::text::DEFAULT_WIDTH)
+}
+
 /// Exit 0 when the output was written, 2 when it could not be.
 fn exit_after(written: bool) -> ExitCode {
     ExitCode::from(if written { EXIT_PASS } else { EXIT_INPUT })
@@ -386,7 +396,7 @@ fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
         }
     };
     let text = match format {
-        Format::Text => render::text::render(&report, &file),
+        Format::Text => render::text::render_with_width(&report, &file, terminal_width()),
         Format::Json => render::json::render(&report),
         Format::Csv => render::csv::render(
             &report,

@@ -447,6 +447,7 @@ fn build_ratings(rd: &mut Reader<'_>, g: Option<&raw::RawRatings>) -> R<RatingsS
             RatingsSpec {
                 resistor_derating: 0.5,
                 trimmer_power_w: 0.1,
+                resistor_min_w: None,
             }
         }
         Some(g) => RatingsSpec {
@@ -462,6 +463,9 @@ fn build_ratings(rd: &mut Reader<'_>, g: Option<&raw::RawRatings>) -> R<RatingsS
                 "ratings.trimmer_power not given: 0.1 W (typical)",
                 |r, v| r.positive(v, "ratings.trimmer_power", Dimension::Power),
             )?,
+            resistor_min_w: rd.opt(&g.resistor_min, |r, v| {
+                r.positive(v, "ratings.resistor_min", Dimension::Power)
+            })?,
         },
     })
 }

@@ -392,6 +392,9 @@ pub struct RatingsSpec {
     pub resistor_derating: f64,
     /// Trimmer rated power, W.
     pub trimmer_power_w: f64,
+    /// Smallest fixed-resistor rating to choose (e.g. 1/4 W for
+    /// through-hole parts), W; `None`: the smallest standard rating.
+    pub resistor_min_w: Option<f64>,
 }
 
 /// How a tolerance is drawn in the Monte Carlo of `spread`.

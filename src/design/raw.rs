@@ -413,4 +413,6 @@ pub struct RawRatings {
     pub resistor_derating: Option<Value>,
     /// Power rating of the trimmer.
     pub trimmer_power: Option<Value>,
+    /// Smallest fixed-resistor power rating to build with.
+    pub resistor_min: Option<Value>,
 }

@@ -18,7 +18,10 @@ fn num(x: Option<f64>, digits: usize) -> String {
 fn cells(r: &CompareRow) -> Vec<(&'static str, String)> {
     vec![
         ("element", r.element.clone()),
-        ("tolerance %", format!("{:.1}", r.tolerance_percent)),
+        (
+            "tolerance %",
+            crate::quantity::format_sig(r.tolerance_percent, 3),
+        ),
         (
             "drive",
             if r.drive.is_empty() {
@@ -76,10 +79,44 @@ fn cells(r: &CompareRow) -> Vec<(&'static str, String)> {
 /// Aligned text: one column per candidate, one line per figure; warnings
 /// and errors listed below.
 pub fn render_text(c: &Comparison) -> String {
-    let mut out = format!(
+    render_text_with_width(c, super::text::DEFAULT_WIDTH)
+}
+
+/// [`render_text`] for a terminal `width` columns wide: when the
+/// side-by-side table would be wider, each candidate becomes a block of
+/// lines instead.
+pub fn render_text_with_width(c: &Comparison, width: usize) -> String {
+    let table = columns(c);
+    if table.lines().map(|l| l.chars().count()).max().unwrap_or(0) <= width {
+        return table + &notes(c);
+    }
+    let mut out = header(c);
+    for r in &c.rows {
+        out.push_str(&format!("{}\n", r.label));
+        let cells = cells(r);
+        let w = cells
+            .iter()
+            .map(|(h, _)| h.chars().count())
+            .max()
+            .unwrap_or(0);
+        for (h, v) in cells {
+            out.push_str(&format!("  {h:<w$}  {v}\n"));
+        }
+        out.push('\n');
+    }
+    out + &notes(c)
+}
+
+fn header(c: &Comparison) -> String {
+    format!(
         "draftwire compare · {}\ntarget trip airflow {:.3} m/s, ambient {:.1} °C\n\n",
         c.title, c.target_trip_airflow_m_per_s, c.ambient_c
-    );
+    )
+}
+
+/// The side-by-side table (no notes).
+fn columns(c: &Comparison) -> String {
+    let mut out = header(c);
     let table: Vec<Vec<(&str, String)>> = c.rows.iter().map(cells).collect();
     let head_w = table.first().map_or(0, |t| {
         t.iter().map(|(h, _)| h.chars().count()).max().unwrap_or(0)
@@ -115,6 +152,12 @@ pub fn render_text(c: &Comparison) -> String {
         }
         out.push('\n');
     }
+    out
+}
+
+/// Failing checks, errors and warnings under the table.
+fn notes(c: &Comparison) -> String {
+    let mut out = String::new();
     for r in &c.rows {
         if !r.failed_checks.is_empty() {
             out.push_str(&format!(

@@ -25,7 +25,7 @@ impl Table {
         self.rows.push(row);
         self.notes.push((self.rows.len() - 1, note));
     }
-    fn render(&self, out: &mut String, indent: &str, align: &str) {
+    fn render(&self, out: &mut String, indent: &str, align: &str, width: usize) {
         let align: Vec<char> = align.chars().collect();
         let n = self.rows.iter().map(Vec::len).max().unwrap_or(0);
         let widths: Vec<usize> = (0..n)
@@ -59,7 +59,7 @@ impl Table {
             out.push('\n');
             for (_, note) in self.notes.iter().filter(|(i, _)| *i == r) {
                 let hang = format!("{indent}{}  ", " ".repeat(widths[0]));
-                out.push_str(&wrap(note, &hang, &hang, WRAP_WIDTH));
+                out.push_str(&wrap(note, &hang, &hang, width));
             }
         }
     }
@@ -72,8 +72,8 @@ fn key_values(out: &mut String, lines: &[(&str, String)]) {
     }
 }
 
-/// Width to which running text is wrapped.
-const WRAP_WIDTH: usize = 100;
+/// Width to which running text is wrapped when the terminal's is unknown.
+pub const DEFAULT_WIDTH: usize = 100;
 
 /// Wrap `text` at word boundaries to `width` characters, the first line
 /// starting with `first`, the others with `rest`; ends with a newline.
@@ -115,6 +115,12 @@ fn heading(out: &mut String, title: &str) {
 
 /// Render the report as aligned text.
 pub fn render(r: &Report, file: &str) -> String {
+    render_with_width(r, file, DEFAULT_WIDTH)
+}
+
+/// [`render`] with running text wrapped to `width` columns (the CLI passes
+/// the terminal's width, `COLUMNS`).
+pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
     let mut out = String::new();
     let _ = writeln!(out, "draftwire size · {}", r.title);
     let _ = writeln!(out, "design file   {file}");
@@ -155,12 +161,7 @@ pub fn render(r: &Report, file: &str) -> String {
             failed.join(", ")
         )
     };
-    out.push_str(&wrap(
-        &verdict,
-        "result        ",
-        "              ",
-        WRAP_WIDTH,
-    ));
+    out.push_str(&wrap(&verdict, "result        ", "              ", width));
     let _ = writeln!(out, "comparator    {}", r.comparator_limits);
 
     heading(
@@ -202,7 +203,7 @@ pub fn render(r: &Report, file: &str) -> String {
             eng(p.time_constant_s, "s"),
         ]);
     }
-    t.render(&mut out, "  ", "lrrrrrrrr");
+    t.render(&mut out, "  ", "lrrrrrrrr", width);
 
     let tr = &r.trip;
     heading(
@@ -272,7 +273,7 @@ pub fn render(r: &Report, file: &str) -> String {
         ("inverting input (−)", tr.inverting_input.clone()),
     ];
     key_values(&mut out, &trip_lines);
-    out.push_str(&wrap(&tr.hysteresis_note, "  ", "  ", WRAP_WIDTH));
+    out.push_str(&wrap(&tr.hysteresis_note, "  ", "  ", width));
 
     heading(&mut out, "Bill of values");
     let mut t = Table::new(&["ref", "part", "value", "exact", "rating"]);
@@ -308,7 +309,7 @@ pub fn render(r: &Report, file: &str) -> String {
             v.reason.clone(),
         );
     }
-    t.render(&mut out, "  ", "lllll");
+    t.render(&mut out, "  ", "lllll", width);
 
     if !r.drift.is_empty() {
         heading(&mut out, "Trip-point drift");
@@ -355,9 +356,9 @@ pub fn render(r: &Report, file: &str) -> String {
                 d.note.clone(),
             ]);
         }
-        t.render(&mut out, "  ", "lrrrrrrl");
+        t.render(&mut out, "  ", "lrrrrrrl", width);
         for c in &corners {
-            out.push_str(&wrap(c, "  ", "      ", WRAP_WIDTH));
+            out.push_str(&wrap(c, "  ", "      ", width));
         }
     }
 
@@ -391,7 +392,7 @@ pub fn render(r: &Report, file: &str) -> String {
         if !c.condition.is_empty() {
             text.push_str(&format!(" (worst at: {})", c.condition));
         }
-        out.push_str(&wrap(&text, "  ", "       ", WRAP_WIDTH));
+        out.push_str(&wrap(&text, "  ", "       ", width));
     }
     if !r.diagnostics.is_empty() {
         heading(&mut out, "Solver diagnostics (not design checks)");
@@ -403,25 +404,25 @@ pub fn render(r: &Report, file: &str) -> String {
                 c.id,
                 c.detail
             );
-            out.push_str(&wrap(&text, "  ", "       ", WRAP_WIDTH));
+            out.push_str(&wrap(&text, "  ", "       ", width));
         }
     }
 
     if !r.warnings.is_empty() {
         heading(&mut out, "Warnings");
         for w in &r.warnings {
-            out.push_str(&wrap(w, "  ? ", "    ", WRAP_WIDTH));
+            out.push_str(&wrap(w, "  ? ", "    ", width));
         }
     }
 
     heading(&mut out, "Cautions");
     for c in &r.cautions {
-        out.push_str(&wrap(c, "  ! ", "    ", WRAP_WIDTH));
+        out.push_str(&wrap(c, "  ! ", "    ", width));
     }
     if !r.assumptions.is_empty() {
         heading(&mut out, "Assumed (the file left these open)");
         for a in &r.assumptions {
-            out.push_str(&wrap(a, "  - ", "    ", WRAP_WIDTH));
+            out.push_str(&wrap(a, "  - ", "    ", width));
         }
     }
     out
