@@ -6,6 +6,7 @@ pub mod compare;
 pub mod corners;
 pub mod drift;
 pub mod output;
+pub mod plot;
 pub mod size;
 pub mod spread;
 pub mod stage;

@@ -139,6 +139,20 @@ pub struct WorstCase {
     pub conditions: usize,
 }
 
+/// One bar of the trip-airflow histogram.
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct HistogramBin {
+    /// Lower edge, m/s.
+    pub from_m_per_s: f64,
+    /// Upper edge, m/s.
+    pub to_m_per_s: f64,
+    /// Trials with their trip airflow in [from, to).
+    pub trials: u64,
+}
+
+/// Bars the report's histogram has at most.
+pub const DISPLAY_BINS: usize = 60;
+
 /// A parameter's share of the trip airflow's variance.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Contribution {
@@ -196,6 +210,9 @@ pub struct SpreadReport {
     pub trip_airflow_quantiles_text: [String; 5],
     /// Relative resolution of the quantiles (histogram bin width).
     pub quantile_resolution: f64,
+    /// The trip airflows (trimmer at its printed setting) in at most
+    /// [`DISPLAY_BINS`] bars over the range they occupy.
+    pub trip_airflow_histogram: Vec<HistogramBin>,
     /// Share of trials that never switch at the printed setting.
     pub never_switches_share: f64,
     /// Worst case over the tolerance box.
@@ -583,6 +600,30 @@ impl Stats {
         }
     }
 
+    /// The fine histogram merged into at most [`DISPLAY_BINS`] bars over
+    /// the bins that hold trials.
+    fn display_bins(&self) -> Vec<HistogramBin> {
+        let Some(first) = self.histogram.iter().position(|&c| c > 0) else {
+            return Vec::new();
+        };
+        let last = self.histogram.iter().rposition(|&c| c > 0).unwrap_or(first);
+        let span = last - first + 1;
+        let per = span.div_ceil(DISPLAY_BINS);
+        let (lo, _) = HISTOGRAM_RANGE_M_PER_S;
+        let edge = |k: usize| lo * 10f64.powf(k as f64 / BINS_PER_DECADE as f64);
+        (first..=last)
+            .step_by(per)
+            .map(|k| {
+                let end = (k + per).min(last + 1);
+                HistogramBin {
+                    from_m_per_s: edge(k),
+                    to_m_per_s: edge(end),
+                    trials: self.histogram[k..end].iter().map(|&c| u64::from(c)).sum(),
+                }
+            })
+            .collect()
+    }
+
     fn shares(&self) -> Vec<Contribution> {
         let m = self.m as f64;
         if self.m < 2 {
@@ -863,6 +904,7 @@ pub fn spread(
             [0.01, 0.05, 0.5, 0.95, 0.99].map(|q| total.quantile_text(q, low, high))
         },
         quantile_resolution: HISTOGRAM_RESOLUTION,
+        trip_airflow_histogram: total.display_bins(),
         never_switches_share: (total.n - total.m) as f64 / n,
         worst_case: worst,
         trimmable_share,

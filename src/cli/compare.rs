@@ -55,11 +55,17 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
             return ExitCode::from(EXIT_INPUT);
         }
     };
-    let text = match format {
-        Format::Text => render::compare::render_text_with_width(&cmp, super::terminal_width()),
-        Format::Json => render::compare::render_json(&cmp),
-        Format::Csv => render::compare::render_csv(&cmp),
-    };
+    let text =
+        match format {
+            Format::Text => render::compare::render_text_with_width(&cmp, super::terminal_width()),
+            Format::Json => render::compare::render_json(&cmp),
+            Format::Csv => render::compare::render_csv(&cmp),
+            Format::Svg => return super::input_error(
+                Format::Text,
+                "error: compare: --format svg is not drawn for a comparison; use text, json or csv",
+                None,
+            ),
+        };
     if !emit(&text) {
         return ExitCode::from(EXIT_INPUT);
     }

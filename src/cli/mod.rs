@@ -160,6 +160,9 @@ enum Format {
     Json,
     /// CSV (for `size`, one table: see --table).
     Csv,
+    /// An SVG picture (size: transfer curve and drift; spread: histogram;
+    /// sweep: the swept outputs).
+    Svg,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -407,6 +410,15 @@ fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
                 CsvTable::Drift => render::csv::Table::Drift,
             },
         ),
+        Format::Svg => match draftwire::analysis::size::size_core(&design) {
+            Ok(core) => {
+                render::svg::transfer(&draftwire::analysis::plot::transfer_plot(&design, &core))
+            }
+            Err(e) => {
+                eprintln!("design failed: {file}: {e}: nothing to draw");
+                return ExitCode::from(EXIT_DESIGN_FAIL);
+            }
+        },
     };
     if !emit(&text) {
         return ExitCode::from(EXIT_INPUT);

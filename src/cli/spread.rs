@@ -88,6 +88,7 @@ pub fn run(
         Format::Text => render::spread::render_text(&report),
         Format::Json => render::spread::render_json(&report),
         Format::Csv => render::spread::render_csv(&report),
+        Format::Svg => render::svg::spread(&report),
     };
     if !emit(&text) {
         return ExitCode::from(EXIT_INPUT);

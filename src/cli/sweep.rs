@@ -65,6 +65,7 @@ pub fn run(
         Format::Text => render::sweep::render_text(&report),
         Format::Json => render::sweep::render_json(&report),
         Format::Csv => render::sweep::render_csv(&report),
+        Format::Svg => render::svg::sweep(&report),
     };
     if !emit(&text) {
         return ExitCode::from(EXIT_INPUT);

@@ -5,5 +5,6 @@ pub mod compare;
 pub mod csv;
 pub mod json;
 pub mod spread;
+pub mod svg;
 pub mod sweep;
 pub mod text;
