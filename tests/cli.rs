@@ -887,3 +887,29 @@ fn text_fits_the_terminal_width() {
         "{cautions:#?}"
     );
 }
+
+/// `--airflow-unit ft/min` shows every airflow of the text report in
+/// ft/min: 0.3 m/s = 0.3/0.00508 = 59.06 ft/min (1 ft/min = 0.00508 m/s
+/// exactly, yard and pound agreement 1959), and no m/s is left.
+#[test]
+fn text_report_in_feet_per_minute() {
+    let out = draftwire()
+        .args(["size", "--airflow-unit", "ft/min"])
+        .arg(manifest("examples/workshop-door-draught.toml"))
+        .output()
+        .unwrap();
+    let text = String::from_utf8(out.stdout).unwrap();
+    assert!(
+        text.contains("target                         59.1 ft/min"),
+        "{text}"
+    );
+    assert!(!text.contains("m/s"), "{text}");
+    // JSON stays in m/s.
+    let out = draftwire()
+        .args(["size", "--format", "json", "--airflow-unit", "ft/min"])
+        .arg(manifest("examples/workshop-door-draught.toml"))
+        .output()
+        .unwrap();
+    let v: serde_json::Value = serde_json::from_slice(&out.stdout).unwrap();
+    assert_eq!(v["trip"]["target_airflow_m_per_s"], 0.3);
+}

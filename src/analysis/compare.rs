@@ -81,6 +81,14 @@ pub struct CompareRow {
 /// The comparison table.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Comparison {
+    /// Layout version.
+    pub schema_version: u32,
+    /// draftwire's version.
+    pub tool_version: String,
+    /// The design file.
+    pub design_file: String,
+    /// Whether every candidate passes every design check.
+    pub passed: bool,
     /// The design's title.
     pub title: String,
     /// Target trip airflow of the design, m/s.
@@ -101,7 +109,12 @@ pub fn compare(design: &Design, candidates: &[Candidate]) -> Result<Comparison, 
         return Err(CompareError::NoCandidates);
     }
     let rows = candidates.iter().map(|c| row(design, c)).collect();
+    let rows: Vec<CompareRow> = rows;
     Ok(Comparison {
+        schema_version: crate::report::SCHEMA_VERSION,
+        tool_version: env!("CARGO_PKG_VERSION").to_string(),
+        design_file: design.design_file.clone(),
+        passed: rows.iter().all(|r| r.passed && r.error.is_none()),
         title: design.title.clone(),
         target_trip_airflow_m_per_s: design.detector.trip_airflow_m_per_s,
         ambient_c: design.ambient.nominal_k - C0,

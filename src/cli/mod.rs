@@ -62,6 +62,9 @@ enum Command {
         /// Which table to write with --format csv.
         #[arg(long, value_enum, default_value_t = CsvTable::Values)]
         table: CsvTable,
+        /// Unit of airflow in the text report (JSON and CSV stay in m/s).
+        #[arg(long = "airflow-unit", value_enum, default_value_t = AirUnit::MPerS)]
+        airflow_unit: AirUnit,
     },
     /// Spread of the trip point over part tolerances, ambient and supply: worst case and a seeded Monte Carlo.
     Spread {
@@ -163,6 +166,19 @@ enum Format {
     /// An SVG picture (size: transfer curve and drift; spread: histogram;
     /// sweep: the swept outputs).
     Svg,
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+enum AirUnit {
+    /// Metres per second.
+    #[value(name = "m/s")]
+    MPerS,
+    /// Feet per minute.
+    #[value(name = "ft/min")]
+    FtPerMin,
+    /// Centimetres per second.
+    #[value(name = "cm/s")]
+    CmPerS,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -308,7 +324,8 @@ pub fn run() -> ExitCode {
             design,
             format,
             table,
-        } => size(&design, format, table),
+            airflow_unit,
+        } => size(&design, format, table, airflow_unit),
         Command::Compare {
             design,
             candidates,
@@ -379,7 +396,7 @@ pub fn run() -> ExitCode {
     }
 }
 
-fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
+fn size(path: &Path, format: Format, table: CsvTable, unit: AirUnit) -> ExitCode {
     let source = match read(path) {
         Ok(s) => s,
         Err(e) => return input_error(format, &e, None),
@@ -399,7 +416,16 @@ fn size(path: &Path, format: Format, table: CsvTable) -> ExitCode {
         }
     };
     let text = match format {
-        Format::Text => render::text::render_with_width(&report, &file, terminal_width()),
+        Format::Text => render::text::render_with(
+            &report,
+            &file,
+            terminal_width(),
+            match unit {
+                AirUnit::MPerS => render::text::AirflowUnit::MetresPerSecond,
+                AirUnit::FtPerMin => render::text::AirflowUnit::FeetPerMinute,
+                AirUnit::CmPerS => render::text::AirflowUnit::CentimetresPerSecond,
+            },
+        ),
         Format::Json => render::json::render(&report),
         Format::Csv => render::csv::render(
             &report,

@@ -105,8 +105,8 @@ fn eng(x: f64, unit: &str) -> String {
 }
 
 /// An airflow with its unit, or what happens instead.
-fn airflow_or(u: Option<f64>, instead: &str) -> String {
-    u.map_or_else(|| instead.to_string(), |u| format!("{u:.3} m/s"))
+fn airflow_or(u: Option<f64>, instead: &str, air: AirflowUnit) -> String {
+    u.map_or_else(|| instead.to_string(), |u| air.text(u))
 }
 
 fn heading(out: &mut String, title: &str) {
@@ -121,6 +121,110 @@ pub fn render(r: &Report, file: &str) -> String {
 /// [`render`] with running text wrapped to `width` columns (the CLI passes
 /// the terminal's width, `COLUMNS`).
 pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
+    render_with(r, file, width, AirflowUnit::MetresPerSecond)
+}
+
+/// The unit airflow is shown in by the text report.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum AirflowUnit {
+    /// m/s (the report's own unit).
+    MetresPerSecond,
+    /// ft/min (1 ft/min = 0.00508 m/s exactly, yard and pound agreement 1959).
+    FeetPerMinute,
+    /// cm/s.
+    CentimetresPerSecond,
+}
+
+impl AirflowUnit {
+    /// m/s in one of this unit.
+    fn m_per_s(self) -> f64 {
+        match self {
+            AirflowUnit::MetresPerSecond => 1.0,
+            AirflowUnit::FeetPerMinute => 0.00508,
+            AirflowUnit::CentimetresPerSecond => 0.01,
+        }
+    }
+    /// Its symbol.
+    pub fn symbol(self) -> &'static str {
+        match self {
+            AirflowUnit::MetresPerSecond => "m/s",
+            AirflowUnit::FeetPerMinute => "ft/min",
+            AirflowUnit::CentimetresPerSecond => "cm/s",
+        }
+    }
+    /// An airflow in this unit with the report's precision (three decimals
+    /// in m/s, one in ft/min and cm/s), without the symbol.
+    fn number(self, u: f64, extra_digits: usize) -> String {
+        let d = if self == AirflowUnit::MetresPerSecond {
+            3
+        } else {
+            1
+        } + extra_digits;
+        format!("{:.*}", d, u / self.m_per_s())
+    }
+    /// The same with the symbol.
+    fn text(self, u: f64) -> String {
+        format!("{} {}", self.number(u, 0), self.symbol())
+    }
+    /// Prose written in m/s, its airflows converted: every number (or
+    /// range `a–b`) followed by " m/s" is rescaled, four significant
+    /// figures; "per m/s" becomes "per <unit>".
+    fn prose(self, text: &str) -> String {
+        if self == AirflowUnit::MetresPerSecond {
+            return text.to_string();
+        }
+        let mut out = String::new();
+        let mut rest = text;
+        while let Some(i) = rest.find(" m/s") {
+            let after = rest[i + 4..].chars().next();
+            if after.is_some_and(|c| c.is_alphanumeric()) {
+                out.push_str(&rest[..i + 4]);
+                rest = &rest[i + 4..];
+                continue;
+            }
+            let before = &rest[..i];
+            // The number (or a–b range) right before " m/s".
+            let start = before
+                .rfind(|c: char| {
+                    !(c.is_ascii_digit()
+                        || c == '.'
+                        || c == '-'
+                        || c == '+'
+                        || c == '–'
+                        || c == 'e')
+                })
+                .map_or(0, |k| {
+                    k + before[k..].chars().next().map_or(1, char::len_utf8)
+                });
+            let token = &before[start..];
+            let convert = |t: &str| -> Option<String> {
+                let v: f64 = t.parse().ok()?;
+                Some(crate::quantity::format_sig(v / self.m_per_s(), 4))
+            };
+            let converted = match token.split_once('–') {
+                Some((a, b)) => convert(a).zip(convert(b)).map(|(a, b)| format!("{a}–{b}")),
+                None => convert(token),
+            };
+            match converted {
+                Some(c) if !token.is_empty() => {
+                    out.push_str(&before[..start]);
+                    out.push_str(&c);
+                }
+                _ => out.push_str(before),
+            }
+            out.push(' ');
+            out.push_str(self.symbol());
+            rest = &rest[i + 4..];
+        }
+        out.push_str(rest);
+        out
+    }
+}
+
+/// [`render_with_width`] with airflow shown in `unit` (the JSON and CSV
+/// reports stay in m/s).
+pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> String {
+    let air = unit;
     let mut out = String::new();
     let _ = writeln!(out, "draftwire size · {}", r.title);
     let _ = writeln!(out, "design file   {file}");
@@ -181,7 +285,7 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
     ]);
     t.push(vec![
         "".into(),
-        "m/s".into(),
+        air.symbol().into(),
         "°C".into(),
         "".into(),
         "".into(),
@@ -193,7 +297,7 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
     for p in &r.operating_points {
         t.push(vec![
             p.label.clone(),
-            format!("{:.3}", p.airflow_m_per_s),
+            air.number(p.airflow_m_per_s, 0),
             format!("{:.1}", p.element_temperature_c),
             eng(p.element_resistance_ohm, "Ω"),
             eng(p.element_current_a, "A"),
@@ -211,12 +315,14 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
         &format!("Trip point (trips on {} airflow)", tr.direction),
     );
     let trip_lines = [
-        ("target", format!("{:.3} m/s", tr.target_airflow_m_per_s)),
+        ("target", air.text(tr.target_airflow_m_per_s)),
         (
             "trip band",
             format!(
-                "{:.3}–{:.3} m/s at every condition",
-                tr.band_m_per_s[0], tr.band_m_per_s[1]
+                "{}–{} {} at every condition",
+                air.number(tr.band_m_per_s[0], 0),
+                air.number(tr.band_m_per_s[1], 0),
+                air.symbol()
             ),
         ),
         (
@@ -226,14 +332,17 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
                 "normal airflow"
             },
             format!(
-                "{:.3} m/s (the output must stay idle there)",
-                tr.normal_airflow_m_per_s
+                "{} (the output must stay idle there)",
+                air.text(tr.normal_airflow_m_per_s)
             ),
         ),
-        ("trips at", airflow_or(tr.airflow_m_per_s, "never switches")),
+        (
+            "trips at",
+            airflow_or(tr.airflow_m_per_s, "never switches", air),
+        ),
         (
             "releases at",
-            airflow_or(tr.release_airflow_m_per_s, "never releases"),
+            airflow_or(tr.release_airflow_m_per_s, "never releases", air),
         ),
         (
             "sense voltage at trip",
@@ -245,7 +354,14 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
         ),
         (
             "sensitivity dV/dU",
-            format!("{:.2} mV per m/s", tr.sensitivity_v_per_m_per_s * 1000.0),
+            format!(
+                "{} mV per {}",
+                crate::quantity::format_sig(
+                    tr.sensitivity_v_per_m_per_s * 1000.0 * air.m_per_s(),
+                    4
+                ),
+                air.symbol()
+            ),
         ),
         (
             "trimmer setting",
@@ -263,17 +379,25 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
         ),
         (
             "1 % of travel moves it",
-            format!("{:.4} m/s", tr.airflow_per_percent_travel_m_per_s),
+            format!(
+                "{} {}",
+                air.number(tr.airflow_per_percent_travel_m_per_s, 1),
+                air.symbol()
+            ),
         ),
         (
             "comparator offset adds",
-            format!("± {:.4} m/s", tr.offset_uncertainty_m_per_s),
+            format!(
+                "± {} {}",
+                air.number(tr.offset_uncertainty_m_per_s, 1),
+                air.symbol()
+            ),
         ),
         ("non-inverting input (+)", tr.non_inverting_input.clone()),
         ("inverting input (−)", tr.inverting_input.clone()),
     ];
     key_values(&mut out, &trip_lines);
-    out.push_str(&wrap(&tr.hysteresis_note, "  ", "  ", width));
+    out.push_str(&wrap(&air.prose(&tr.hysteresis_note), "  ", "  ", width));
 
     heading(&mut out, "Bill of values");
     let mut t = Table::new(&["ref", "part", "value", "exact", "rating"]);
@@ -306,7 +430,7 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
                 exact,
                 rating,
             ],
-            v.reason.clone(),
+            air.prose(&v.reason),
         );
     }
     t.render(&mut out, "  ", "lllll", width);
@@ -347,13 +471,14 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
                 format!("{:.1} °C", d.ambient_c),
                 format!("{:.3} V", d.element_rail_v),
                 format!("{:.3} V", d.reference_rail_v),
-                d.trip_airflow_m_per_s
-                    .map_or("—".into(), |u| format!("{u:.3} m/s")),
+                d.trip_airflow_m_per_s.map_or("—".into(), |u| air.text(u)),
                 d.release_airflow_m_per_s
-                    .map_or("—".into(), |u| format!("{u:.3} m/s")),
-                d.shift_m_per_s
-                    .map_or("—".into(), |u| format!("{u:+.3} m/s")),
-                d.note.clone(),
+                    .map_or("—".into(), |u| air.text(u)),
+                d.shift_m_per_s.map_or("—".into(), |u| {
+                    let sign = if u < 0.0 { "−" } else { "+" };
+                    format!("{sign}{}", air.text(u.abs()))
+                }),
+                air.prose(&d.note),
             ]);
         }
         t.render(&mut out, "  ", "lrrrrrrl", width);
@@ -387,10 +512,10 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
             if c.passed { "pass" } else { "FAIL" },
             c.name,
             c.id,
-            c.detail
+            air.prose(&c.detail)
         );
         if !c.condition.is_empty() {
-            text.push_str(&format!(" (worst at: {})", c.condition));
+            text.push_str(&format!(" (worst at: {})", air.prose(&c.condition)));
         }
         out.push_str(&wrap(&text, "  ", "       ", width));
     }
@@ -402,7 +527,7 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
                 if c.passed { "ok  " } else { "BAD " },
                 c.name,
                 c.id,
-                c.detail
+                air.prose(&c.detail)
             );
             out.push_str(&wrap(&text, "  ", "       ", width));
         }
@@ -410,19 +535,19 @@ pub fn render_with_width(r: &Report, file: &str, width: usize) -> String {
 
     if !r.warnings.is_empty() {
         heading(&mut out, "Warnings");
-        for w in &r.warnings {
-            out.push_str(&wrap(w, "  ? ", "    ", width));
+        for w in r.warnings.iter().map(|w| air.prose(w)) {
+            out.push_str(&wrap(&w, "  ? ", "    ", width));
         }
     }
 
     heading(&mut out, "Cautions");
-    for c in &r.cautions {
-        out.push_str(&wrap(c, "  ! ", "    ", width));
+    for c in r.cautions.iter().map(|c| air.prose(c)) {
+        out.push_str(&wrap(&c, "  ! ", "    ", width));
     }
     if !r.assumptions.is_empty() {
         heading(&mut out, "Assumed (the file left these open)");
-        for a in &r.assumptions {
-            out.push_str(&wrap(a, "  - ", "    ", width));
+        for a in r.assumptions.iter().map(|a| air.prose(a)) {
+            out.push_str(&wrap(&a, "  - ", "    ", width));
         }
     }
     out
