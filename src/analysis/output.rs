@@ -439,14 +439,7 @@ fn supply_budget(
         ..SupplyBudget::default()
     };
     if let Some(g) = design.supply.regulator {
-        let reg = LinearRegulator {
-            output_v: g.output_v,
-            output_tolerance: g.tolerance,
-            dropout_v: g.dropout_v,
-            quiescent_a: g.quiescent_a,
-            theta_ja_k_per_w: g.theta_ja_k_per_w,
-            max_junction_k: g.max_junction_k,
-        };
+        let reg = super::stage::regulator(&g);
         budget.idle_a += g.quiescent_a;
         budget.tripped_a += g.quiescent_a;
         let i_out = currents(core.idle_state, End::Max)

@@ -11,6 +11,20 @@ use crate::circuit::switch::{
 };
 use crate::design::model::{Design, Load, Rail, Sizable, StageKind};
 
+/// The regulator's data-sheet figures as the circuit formulas take them.
+pub(crate) fn regulator(
+    g: &crate::design::model::RegulatorSpec,
+) -> crate::circuit::regulator::LinearRegulator {
+    crate::circuit::regulator::LinearRegulator {
+        output_v: g.output_v,
+        output_tolerance: g.tolerance,
+        dropout_v: g.dropout_v,
+        quiescent_a: g.quiescent_a,
+        theta_ja_k_per_w: g.theta_ja_k_per_w,
+        max_junction_k: g.max_junction_k,
+    }
+}
+
 /// Pull-up on the comparator output when the file leaves it open (common
 /// practice for open-collector outputs, no source).
 pub const DEFAULT_PULLUP_OHM: f64 = 10e3;

@@ -470,6 +470,42 @@ fn build_ratings(rd: &mut Reader<'_>, g: Option<&raw::RawRatings>) -> R<RatingsS
     })
 }
 
+/// The wanted still-air overheat: `overheat_rise` or `overheat_ratio`
+/// (one of them at most), with field names under `p`.
+pub(crate) fn read_overheat(
+    rd: &Reader<'_>,
+    rise: &Option<Value>,
+    ratio: &Option<Value>,
+    p: &str,
+) -> R<Option<OverheatTarget>> {
+    Ok(match (rise, ratio) {
+        (Some(v), None) => Some(OverheatTarget::Rise(rd.positive(
+            v,
+            &format!("{p}.overheat_rise"),
+            Dimension::TemperatureDifference,
+        )?)),
+        (None, Some(v)) => {
+            let x = rd.quantity(v, &format!("{p}.overheat_ratio"), Dimension::Fraction)?;
+            if !(x > 0.0 && x < 20.0) {
+                return Err(rd.err(
+                    Some(v.span()),
+                    &format!("{p}.overheat_ratio"),
+                    format!("expected a ratio above 0 and below 20, found {x}"),
+                ));
+            }
+            Some(OverheatTarget::Ratio(x))
+        }
+        (Some(_), Some(v)) => {
+            return Err(rd.err(
+                Some(v.span()),
+                &format!("{p}.overheat_ratio"),
+                "give either overheat_rise or overheat_ratio, not both".into(),
+            ))
+        }
+        (None, None) => None,
+    })
+}
+
 /// Read a drive table (the design's `[drive]` or a candidate's own), with
 /// field names under `p`.
 pub(crate) fn build_drive(
@@ -551,32 +587,7 @@ pub(crate) fn build_drive(
             current_a: Sizable::Auto
         }
     );
-    let overheat = match (&d.overheat_rise, &d.overheat_ratio) {
-        (Some(v), None) => Some(OverheatTarget::Rise(rd.positive(
-            v,
-            &format!("{p}.overheat_rise"),
-            Dimension::TemperatureDifference,
-        )?)),
-        (None, Some(v)) => {
-            let x = rd.quantity(v, &format!("{p}.overheat_ratio"), Dimension::Fraction)?;
-            if !(x > 0.0 && x < 20.0) {
-                return Err(rd.err(
-                    Some(v.span()),
-                    &format!("{p}.overheat_ratio"),
-                    format!("expected a ratio above 0 and below 20, found {x}"),
-                ));
-            }
-            Some(OverheatTarget::Ratio(x))
-        }
-        (Some(_), Some(v)) => {
-            return Err(rd.err(
-                Some(v.span()),
-                &format!("{p}.overheat_ratio"),
-                "give either overheat_rise or overheat_ratio, not both".into(),
-            ))
-        }
-        (None, None) => None,
-    };
+    let overheat = read_overheat(rd, &d.overheat_rise, &d.overheat_ratio, p)?;
     if sized && overheat.is_none() {
         return Err(rd.err(
             Some(d.kind.span()),

@@ -28,7 +28,7 @@
 //!   `cold_temperature` (default 20 °C).
 
 use super::diagnostic::Diagnostic;
-use super::model::{Design, DriveChoice, DriveSpec, OverheatTarget, Sizable};
+use super::model::{Design, DriveChoice, DriveSpec, Sizable};
 use super::raw::{self, Value};
 use super::reader::{Reader, R};
 use crate::element::{
@@ -126,31 +126,8 @@ fn candidate_drive(
             .map(Some);
     }
     let (rise, ratio) = (&c.overheat_rise, &c.overheat_ratio);
-    let overheat = match (rise, ratio) {
-        (None, None) => return Ok(None),
-        (Some(v), None) => OverheatTarget::Rise(rd.positive(
-            v,
-            &format!("{p}.overheat_rise"),
-            Dimension::TemperatureDifference,
-        )?),
-        (None, Some(v)) => {
-            let x = rd.quantity(v, &format!("{p}.overheat_ratio"), Dimension::Fraction)?;
-            if !(x > 0.0 && x < 20.0) {
-                return Err(rd.err(
-                    Some(v.span()),
-                    &format!("{p}.overheat_ratio"),
-                    format!("expected a ratio above 0 and below 20, found {x}"),
-                ));
-            }
-            OverheatTarget::Ratio(x)
-        }
-        (Some(_), Some(v)) => {
-            return Err(rd.err(
-                Some(v.span()),
-                &format!("{p}.overheat_ratio"),
-                "give either overheat_rise or overheat_ratio, not both".into(),
-            ))
-        }
+    let Some(overheat) = super::build::read_overheat(rd, rise, ratio, p)? else {
+        return Ok(None);
     };
     let auto = matches!(
         design.drive,

@@ -18,14 +18,7 @@ pub(crate) fn checks(design: &Design, budget: &SupplyBudget) -> Vec<Check> {
     let Some(g) = design.supply.regulator else {
         return Vec::new();
     };
-    let reg = LinearRegulator {
-        output_v: g.output_v,
-        output_tolerance: g.tolerance,
-        dropout_v: g.dropout_v,
-        quiescent_a: g.quiescent_a,
-        theta_ja_k_per_w: g.theta_ja_k_per_w,
-        max_junction_k: g.max_junction_k,
-    };
+    let reg = crate::analysis::stage::regulator(&g);
     let (vin_lo, vin_hi) = (design.supply.input_min_v, design.supply.input_max_v);
     let ambient_max = design.ambient.max_k;
     let v_out_hi = g.output_v * (1.0 + g.tolerance);
