@@ -698,6 +698,21 @@ pub fn parse_quantity(text: &str, expected: Dimension) -> Result<f64, QuantityEr
     }
 }
 
+/// A signed number as the reports write it: "+" or a typographic minus
+/// ("−", U+2212), then `x`'s magnitude with `significant_digits`.
+pub fn format_signed(x: f64, significant_digits: usize) -> String {
+    format!("{}{}", sign_of(x), format_sig(x.abs(), significant_digits))
+}
+
+/// "+" or the typographic minus "−" (U+2212) for `x`.
+pub fn sign_of(x: f64) -> &'static str {
+    if x < 0.0 {
+        "−"
+    } else {
+        "+"
+    }
+}
+
 /// A plain number rounded to `significant_digits` without trailing zeros
 /// and without float noise: `(0.21000000000000002, 3)` → "0.21",
 /// `(6.393, 2)` → "6.4". Not finite values are written "undefined", "∞".

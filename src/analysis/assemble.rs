@@ -320,12 +320,7 @@ fn end_state(design: &Design, core: &SizedCore, u: Option<f64>, x: f64) -> Strin
     // Tripped when σ·(V_sense − level) > 0 (see size::arrangement_for).
     let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
     let level = core.front.switching_sense_v(x, core.idle_state, src);
-    let sigma = core.sensitivity_v_per_m_per_s.signum()
-        * if design.detector.trip_on == crate::design::model::TripDirection::Rising {
-            1.0
-        } else {
-            -1.0
-        };
+    let sigma = super::corners::tripped_sign(design, core);
     if sigma * (core.still_air.sense_v - level) > 0.0 {
         "always tripped".into()
     } else {

@@ -68,6 +68,8 @@ pub struct Site {
     pub reference_rail_v: f64,
     /// Comparator rail, V.
     pub comparator_rail_v: f64,
+    /// The input voltage, V.
+    pub input_v: f64,
     /// The bench: nominal ambient and supply, where each build is trimmed.
     pub bench: bool,
 }
@@ -142,14 +144,11 @@ impl Grid {
 
 /// An offset in mV with a typographic minus, one decimal.
 pub fn signed_mv(v: f64) -> String {
-    let sign = if v < 0.0 { "−" } else { "+" };
-    format!("{sign}{:.1}", 1e3 * v.abs())
+    format!("{}{:.1}", crate::quantity::sign_of(v), 1e3 * v.abs())
 }
 
 fn percent(f: f64) -> String {
-    let p = 100.0 * (f - 1.0);
-    let sign = if p < 0.0 { "−" } else { "+" };
-    format!("{sign}{}", crate::quantity::format_sig(p.abs(), 3))
+    crate::quantity::format_signed(100.0 * (f - 1.0), 3)
 }
 
 /// Every build: the nominal one, then all vertices of the tolerance box.
@@ -248,6 +247,7 @@ pub fn sites(design: &Design) -> Vec<Site> {
                     element_rail_v,
                     reference_rail_v,
                     comparator_rail_v,
+                    input_v: pick(Rail::Input, ein),
                     bench: ai == 0 && ein.is_none() && ereg.is_none(),
                 });
             }

@@ -759,7 +759,7 @@ fn worst_case(design: &Design, core: &SizedCore, cx: &Context) -> WorstCase {
                             cx,
                             &build,
                             site.ambient_k,
-                            site_input(design, site),
+                            site.input_v,
                             core.trimmer_x,
                             zo * cx.tol[5],
                             true,
@@ -780,24 +780,6 @@ fn worst_case(design: &Design, core: &SizedCore, cx: &Context) -> WorstCase {
     w.release_airflow_min_m_per_s = finite(r_lo);
     w.release_airflow_max_m_per_s = finite(r_hi);
     w
-}
-
-/// The input voltage of a verdict site (the regulated rail is the build's
-/// own here).
-fn site_input(design: &Design, site: &corners::Site) -> f64 {
-    // A site's rails come from the input's end; recover it from whichever
-    // rail is the input (or the nominal input when none is).
-    let rails = [
-        (element_rail(design), site.element_rail_v),
-        (Some(design.detector.reference_rail), site.reference_rail_v),
-        (Some(design.comparator.rail), site.comparator_rail_v),
-    ];
-    rails
-        .iter()
-        .find(|(r, _)| {
-            *r == Some(Rail::Input) || (design.supply.regulator.is_none() && r.is_some())
-        })
-        .map_or(design.supply.input_v, |(_, v)| *v)
 }
 
 /// Run the worst case and the Monte Carlo. `progress` is called with the

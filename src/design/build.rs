@@ -851,71 +851,49 @@ fn comparator_full_range(
     c: &raw::RawComparator,
     at_25c: &ComparatorLimits,
 ) -> R<ComparatorLimits> {
+    let (f, t) = (CLASS_FULL_RANGE, CLASS_25C);
     let mut widened = Vec::new();
-    let mut one = |rd: &mut Reader<'_>,
-                   v: &Option<Value>,
-                   key: &str,
-                   dim: Dimension,
-                   default: f64,
-                   shown: String|
-     -> R<f64> {
-        match v {
-            Some(v) => rd.non_negative(v, &format!("comparator.{key}"), dim),
-            None => {
-                widened.push(format!("{key} {shown}"));
-                Ok(default)
+    // (key, the file's value, dimension, unit, the class-widened default)
+    let mut one =
+        |v: &Option<Value>, key: &str, dim: Dimension, unit: &str, default: f64| -> R<f64> {
+            match v {
+                Some(v) => rd.non_negative(v, &format!("comparator.{key}"), dim),
+                None => {
+                    widened.push(format!(
+                        "{key} {}",
+                        crate::quantity::format_engineering(default, unit, 3)
+                    ));
+                    Ok(default)
+                }
             }
-        }
-    };
+        };
     let offset_v = one(
-        rd,
         &c.offset_full_range,
         "offset_full_range",
         Dimension::Voltage,
-        at_25c.offset_v * CLASS_FULL_RANGE.offset_v / CLASS_25C.offset_v,
-        crate::quantity::format_engineering(
-            at_25c.offset_v * CLASS_FULL_RANGE.offset_v / CLASS_25C.offset_v,
-            "V",
-            3,
-        ),
+        "V",
+        at_25c.offset_v * f.offset_v / t.offset_v,
     )?;
     let bias_a = one(
-        rd,
         &c.bias_current_full_range,
         "bias_current_full_range",
         Dimension::Current,
-        at_25c.bias_a * CLASS_FULL_RANGE.bias_a / CLASS_25C.bias_a,
-        crate::quantity::format_engineering(
-            at_25c.bias_a * CLASS_FULL_RANGE.bias_a / CLASS_25C.bias_a,
-            "A",
-            3,
-        ),
+        "A",
+        at_25c.bias_a * f.bias_a / t.bias_a,
     )?;
     let output_low_v = one(
-        rd,
         &c.output_low_full_range,
         "output_low_full_range",
         Dimension::Voltage,
-        at_25c.output_low_v * CLASS_FULL_RANGE.output_low_v / CLASS_25C.output_low_v,
-        crate::quantity::format_engineering(
-            at_25c.output_low_v * CLASS_FULL_RANGE.output_low_v / CLASS_25C.output_low_v,
-            "V",
-            3,
-        ),
+        "V",
+        at_25c.output_low_v * f.output_low_v / t.output_low_v,
     )?;
     let common_mode_headroom_v = one(
-        rd,
         &c.common_mode_headroom_full_range,
         "common_mode_headroom_full_range",
         Dimension::Voltage,
-        at_25c.common_mode_headroom_v + CLASS_FULL_RANGE.common_mode_headroom_v
-            - CLASS_25C.common_mode_headroom_v,
-        crate::quantity::format_engineering(
-            at_25c.common_mode_headroom_v + CLASS_FULL_RANGE.common_mode_headroom_v
-                - CLASS_25C.common_mode_headroom_v,
-            "V",
-            3,
-        ),
+        "V",
+        at_25c.common_mode_headroom_v + f.common_mode_headroom_v - t.common_mode_headroom_v,
     )?;
     if !widened.is_empty() {
         rd.assumptions.push(format!(

@@ -475,8 +475,7 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
                 d.release_airflow_m_per_s
                     .map_or("—".into(), |u| air.text(u)),
                 d.shift_m_per_s.map_or("—".into(), |u| {
-                    let sign = if u < 0.0 { "−" } else { "+" };
-                    format!("{sign}{}", air.text(u.abs()))
+                    format!("{}{}", crate::quantity::sign_of(u), air.text(u.abs()))
                 }),
                 air.prose(&d.note),
             ]);

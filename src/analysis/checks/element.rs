@@ -9,12 +9,6 @@ use crate::element::Environment;
 use crate::report::Check;
 use crate::solve::operating_point;
 
-/// A signed number with a typographic minus, as the corner labels write it.
-fn signed(x: f64) -> String {
-    let sign = if x < 0.0 { "−" } else { "+" };
-    format!("{sign}{}", crate::quantity::format_sig(x.abs(), 3))
-}
-
 /// Element checks.
 pub fn checks(design: &Design, core: &SizedCore, grid: &Grid) -> Vec<Check> {
     let mut out = Vec::new();
@@ -52,8 +46,8 @@ pub fn hottest_still_air(design: &Design, core: &SizedCore) -> (f64, String) {
                         format!(
                             "still air, {:.1} °C, highest rail, element {} %, drive {} %",
                             env.ambient_k - 273.15,
-                            signed(100.0 * (fe - 1.0)),
-                            signed(100.0 * (fd - 1.0))
+                            crate::quantity::format_signed(100.0 * (fe - 1.0), 3),
+                            crate::quantity::format_signed(100.0 * (fd - 1.0), 3)
                         ),
                     );
                 }
