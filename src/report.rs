@@ -276,6 +276,14 @@ pub struct DriftRow {
     pub release_airflow_m_per_s: Option<f64>,
     /// Shift from the nominal trip airflow, m/s.
     pub shift_m_per_s: Option<f64>,
+    /// With ambient compensation: where the same design without it (a
+    /// fixed-ratio divider sized for the same target) trips at this
+    /// condition, m/s (null without compensation, or where it never
+    /// switches).
+    pub uncompensated_trip_airflow_m_per_s: Option<f64>,
+    /// With ambient compensation: the uncompensated design's trip at this
+    /// condition in words (null without compensation).
+    pub uncompensated_note: Option<String>,
     /// Whether the output is tripped in still air.
     pub tripped_in_still_air: bool,
     /// What happens, in words.
@@ -283,6 +291,29 @@ pub struct DriftRow {
     /// A what-if row for the ratiometric comparison, not a condition the
     /// design meets in service (left out of the drift checks).
     pub comparison_only: bool,
+}
+
+/// Ambient compensation: which, why, and what it buys.
+#[derive(Debug, Clone, PartialEq, Serialize, Default)]
+pub struct CompensationSection {
+    /// `none`, `twin` or `thermistor`.
+    pub kind: String,
+    /// Why this kind, in words (what `auto` tried).
+    pub why: String,
+    /// Largest minus smallest trip airflow of the nominal build over every
+    /// ambient and supply condition, m/s (null where some condition never
+    /// switches).
+    pub drift_span_m_per_s: Option<f64>,
+    /// The same for the design without compensation, m/s (null where some
+    /// condition never switches or it cannot be sized).
+    pub uncompensated_drift_span_m_per_s: Option<f64>,
+    /// Trip airflow's slope in ambient at the nominal point, m/s per K
+    /// (central difference, rails nominal).
+    pub ambient_slope_m_per_s_per_k: Option<f64>,
+    /// The same without compensation, m/s per K.
+    pub uncompensated_ambient_slope_m_per_s_per_k: Option<f64>,
+    /// The compensating parts' designators in the bill.
+    pub parts: Vec<String>,
 }
 
 /// Supply-current budget.
@@ -354,6 +385,8 @@ pub struct Report {
     pub values: Vec<ValueRow>,
     /// Trip-point drift.
     pub drift: Vec<DriftRow>,
+    /// Ambient compensation and what it buys.
+    pub compensation: CompensationSection,
     /// Supply budget.
     pub supply: SupplyBudget,
     /// Design checks: the verdict.

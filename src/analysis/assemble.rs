@@ -1,8 +1,9 @@
 //! Turning a sized core into the report: rows, values, checks, cautions.
 
+use super::compensation::{Compensator, Leg};
 use super::size::SizedCore;
 use crate::circuit::frontend::Arrangement;
-use crate::design::model::{Design, DriveSpec, HysteresisSpec, Load, StageKind};
+use crate::design::model::{Design, DriveSpec, HysteresisSpec, Load, Sizable, StageKind};
 use crate::drive::Drive;
 use crate::eseries::format_rkm;
 use crate::quantity::format_engineering;
@@ -50,9 +51,11 @@ pub fn input_names(a: Arrangement, has_input_resistor: bool) -> (String, String)
 
 /// The trip summary.
 pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
-    let fe = &core.front;
-    let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
     let u_t = design.detector.trip_airflow_m_per_s;
+    // The front end at the bench, with any compensating part at its
+    // nominal-ambient state at the trip airflow.
+    let fe = &core.compensation.front_at(&core.front, &core.env, u_t);
+    let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
     let at = |x: f64| {
         let level = fe.switching_sense_v(x, core.idle_state, src);
         airflow_for_sense(&core.element, &core.drive, &core.env, level, u_t).ok()
@@ -170,13 +173,22 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     };
     let det = &design.detector;
     use crate::design::model::Sizable::Fixed;
-    v.push(ValueRow::resistor(
-        "RR1",
-        d.top_ohm,
-        et.filter(|_| !matches!(det.top_ohm, Fixed(_))),
-        &src(matches!(det.top_ohm, Fixed(_))),
-        "reference divider, top (rail side)".into(),
-    ));
+    let comp_leg = core.compensation.leg();
+    if d.top_ohm > 0.0 {
+        v.push(ValueRow::resistor(
+            "RR1",
+            d.top_ohm,
+            et.filter(|_| !matches!(det.top_ohm, Fixed(_))),
+            &src(matches!(det.top_ohm, Fixed(_))),
+            match comp_leg {
+                Some(Leg::Top) => {
+                    "reference divider, top (rail side), in series with the compensating network"
+                        .into()
+                }
+                _ => "reference divider, top (rail side)".into(),
+            },
+        ));
+    }
     v.push(ValueRow {
         designator: "RV1".into(),
         part: "trimmer".into(),
@@ -194,13 +206,21 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
         ),
         ..ValueRow::default()
     });
-    v.push(ValueRow::resistor(
-        "RR2",
-        d.bottom_ohm,
-        eb.filter(|_| !matches!(det.bottom_ohm, Fixed(_))),
-        &src(matches!(det.bottom_ohm, Fixed(_))),
-        "reference divider, bottom (ground side)".into(),
-    ));
+    if d.bottom_ohm > 0.0 {
+        v.push(ValueRow::resistor(
+            "RR2",
+            d.bottom_ohm,
+            eb.filter(|_| !matches!(det.bottom_ohm, Fixed(_))),
+            &src(matches!(det.bottom_ohm, Fixed(_))),
+            match comp_leg {
+                Some(Leg::Bottom) => {
+                    "reference divider, bottom, in series above the compensating part".into()
+                }
+                _ => "reference divider, bottom (ground side)".into(),
+            },
+        ));
+    }
+    v.extend(compensation_values(design, core));
     if let Some(rf) = core.front.feedback_ohm {
         v.push(ValueRow::resistor(
             "RF1",
@@ -240,6 +260,75 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
         ));
     }
     v
+}
+
+/// The compensating parts' rows: the twin, or the thermistor and its
+/// linearising resistor.
+pub fn compensation_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
+    let ta = design.ambient.nominal_k;
+    let spec = &design.compensation;
+    match &core.compensation {
+        Compensator::None => Vec::new(),
+        Compensator::Twin(t) => {
+            let r = t.element.resistance_law().resistance_ohm(ta);
+            vec![ValueRow {
+                designator: "RC1".into(),
+                part: "ambient twin element".into(),
+                value_ohm: Some(r),
+                e_series: match spec.twin.resistance_ohm {
+                    Sizable::Fixed(_) => "given".into(),
+                    Sizable::Auto => "2 significant figures".into(),
+                },
+                text: format!(
+                    "{} at {:.1} °C (±{} %)",
+                    format_engineering(r, "Ω", 3),
+                    to_c(ta),
+                    crate::quantity::format_sig(100.0 * spec.twin.tolerance, 3)
+                ),
+                reason: format!(
+                    "unheated twin of the sensing element (the same resistance law) at the bottom of the reference divider: a Wheatstone bridge that moves the reference with the ambient; mount it beside the element in the same air, kept below {} % of the element's overheat by its small current",
+                    crate::quantity::format_sig(100.0 * spec.twin.max_rise_share, 3)
+                ),
+                ..ValueRow::default()
+            }]
+        }
+        Compensator::Thermistor(n) => {
+            let th = spec.thermistor;
+            let leg = n.leg.name();
+            vec![
+                ValueRow {
+                    designator: "RT1".into(),
+                    part: "NTC thermistor".into(),
+                    value_ohm: Some(n.law.r0_ohm()),
+                    e_series: match th.r25_ohm {
+                        Sizable::Fixed(_) => "given".into(),
+                        Sizable::Auto => "E6".into(),
+                    },
+                    text: format!(
+                        "{} at 25 °C (±{} %), B {:.0} K (±{} %)",
+                        format_rkm(n.law.r0_ohm()),
+                        crate::quantity::format_sig(100.0 * th.r25_tolerance, 3),
+                        n.law.beta_k(),
+                        crate::quantity::format_sig(100.0 * th.beta_tolerance, 3)
+                    ),
+                    reason: format!(
+                        "ambient compensation in the reference divider's {leg} leg: moves the reference with the sense voltage as the room warms or cools; mount it on the board in the same ambient as the element, away from warm parts"
+                    ),
+                    ..ValueRow::default()
+                },
+                ValueRow::resistor(
+                    "RR3",
+                    n.parallel_ohm,
+                    None,
+                    match th.linearising_ohm {
+                        Sizable::Fixed(_) => "given",
+                        Sizable::Auto => design.e_series.name(),
+                    },
+                    "linearising resistor across RT1: straightens its curve around the nominal ambient".into(),
+                ),
+            ]
+        }
+    }
 }
 
 /// The cautions that apply, in words; each defers to local codes.
@@ -319,7 +408,10 @@ fn end_state(design: &Design, core: &SizedCore, u: Option<f64>, x: f64) -> Strin
     // Unreached: still air lies on one side of the level for every airflow.
     // Tripped when σ·(V_sense − level) > 0 (see size::arrangement_for).
     let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
-    let level = core.front.switching_sense_v(x, core.idle_state, src);
+    let level = core
+        .compensation
+        .front_at(&core.front, &core.env, design.detector.trip_airflow_m_per_s)
+        .switching_sense_v(x, core.idle_state, src);
     let sigma = super::corners::tripped_sign(design, core);
     if sigma * (core.still_air.sense_v - level) > 0.0 {
         "always tripped".into()

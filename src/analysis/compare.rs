@@ -10,11 +10,11 @@
 //! whether the element stays below its maximum temperature in still air at
 //! the hottest ambient.
 
-use super::size::{drive_with, size_core, SizedCore};
+use super::size::size_core;
 use crate::design::element::Candidate;
 use crate::design::model::Design;
 use crate::element::{Element, Environment};
-use crate::solve::{airflow_for_sense, operating_point};
+use crate::solve::operating_point;
 use serde::Serialize;
 
 /// Why no comparison could be made.
@@ -164,6 +164,8 @@ fn row(design: &Design, c: &Candidate) -> CompareRow {
         d.overheat = own.overheat;
         d.drive_tolerance = own.tolerance;
     }
+    // `auto` compensation is chosen for this candidate.
+    let d = super::choice::resolve(&d).design;
     let core = match size_core(&d) {
         Ok(c) => c,
         Err(e) => {
@@ -210,7 +212,7 @@ fn row(design: &Design, c: &Candidate) -> CompareRow {
     out.passed = out.checks_total > 0 && out.failed_checks.is_empty();
     out.sensitivity_v_per_m_per_s = Some(core.sensitivity_v_per_m_per_s);
     out.time_constant_s = Some(core.at_trip.time_constant_s);
-    out.trip_drift_m_per_s_per_k = trip_drift(&d, &core);
+    out.trip_drift_m_per_s_per_k = super::drift::ambient_slope(&d, &core);
     let mut warnings = element.plausibility_warnings().to_vec();
     warnings.extend(element.range_warnings(s.temperature_k, 0.0, &core.env));
     for w in element.range_warnings(
@@ -238,44 +240,6 @@ fn row(design: &Design, c: &Candidate) -> CompareRow {
         }
     }
     out
-}
-
-/// Trip-point drift with ambient, m/s per K: the comparator's switching
-/// level (trimmer held at its sized setting, rails nominal) is held and the
-/// trip airflow re-solved at ambient ± 1 K; central difference.
-fn trip_drift(design: &Design, core: &SizedCore) -> Option<f64> {
-    let value = match core.drive {
-        crate::drive::Drive::SeriesResistor { series_ohm, .. } => series_ohm,
-        crate::drive::Drive::ConstantCurrent { current_a } => current_a,
-    };
-    let rail_v = match core.drive {
-        crate::drive::Drive::SeriesResistor { rail_v, .. } => rail_v,
-        crate::drive::Drive::ConstantCurrent { .. } => 0.0,
-    };
-    let drive = drive_with(&design.drive, value, rail_v);
-    let src = drive.sense_source_ohm(core.at_trip.resistance_ohm);
-    let level = core
-        .front
-        .switching_sense_v(core.trimmer_x, core.idle_state, src);
-    let at = |dt: f64| {
-        let env = Environment {
-            ambient_k: core.env.ambient_k + dt,
-            ..core.env
-        };
-        airflow_for_sense(
-            &core.element,
-            &drive,
-            &env,
-            level,
-            core.trip_airflow_m_per_s
-                .unwrap_or(design.detector.trip_airflow_m_per_s),
-        )
-        .ok()
-    };
-    match (at(1.0), at(-1.0)) {
-        (Some(hi), Some(lo)) => Some(0.5 * (hi - lo)),
-        _ => None,
-    }
 }
 
 #[cfg(test)]

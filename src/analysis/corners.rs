@@ -16,11 +16,12 @@
 //! applicable offset limit (25 °C or full range), taken at both signs and
 //! referred to the sense node.
 
+use super::compensation::{Compensator, Reference, Sensing};
 use super::size::{drive_with, element_rail, trimmer_position, SizedCore};
 pub use super::switching::{switching_at, Switching};
 use crate::circuit::divider::Divider;
 use crate::circuit::frontend::FrontEnd;
-use crate::design::model::{Design, Rail, TripDirection};
+use crate::design::model::{CompensationKind, Design, Rail, TripDirection};
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
 use crate::solve::operating_point;
@@ -40,6 +41,13 @@ pub struct Build {
     pub trimmer: f64,
     /// Divider bottom factor.
     pub bottom: f64,
+    /// Compensating part factors: the twin's resistance or the
+    /// thermistor's R25; the thermistor's beta; its linearising resistor.
+    pub comp: [f64; 3],
+    /// The regulator's output as a factor of nominal: where this unit's
+    /// own output sits (trimmed out on the bench; it moves by the
+    /// regulation band around it in service).
+    pub regulator: f64,
 }
 
 impl Build {
@@ -51,6 +59,8 @@ impl Build {
             top: 1.0,
             trimmer: 1.0,
             bottom: 1.0,
+            comp: [1.0; 3],
+            regulator: 1.0,
         }
     }
 }
@@ -158,16 +168,36 @@ pub fn builds(design: &Design) -> Vec<Build> {
         return out;
     }
     let t = design.detector.divider_tolerances;
-    let dims: [(&str, f64); 5] = [
+    let c = &design.compensation;
+    let (twin, ntc) = match c.kind {
+        CompensationKind::Twin => (c.twin.tolerance, (0.0, 0.0, 0.0)),
+        CompensationKind::Thermistor => (
+            0.0,
+            (
+                c.thermistor.r25_tolerance,
+                c.thermistor.beta_tolerance,
+                t.top,
+            ),
+        ),
+        _ => (0.0, (0.0, 0.0, 0.0)),
+    };
+    let dims: [(&str, f64); 9] = [
         ("element", design.element_tolerance),
         ("drive", design.drive_tolerance),
         ("top", t.top),
         ("trimmer", t.trimmer),
         ("bottom", t.bottom),
+        (
+            if twin > 0.0 { "twin" } else { "thermistor R25" },
+            twin.max(ntc.0),
+        ),
+        ("thermistor beta", ntc.1),
+        ("linearising", ntc.2),
+        ("regulator", design.supply.regulator_offset_tolerance()),
     ];
-    let active: Vec<usize> = (0..5).filter(|&i| dims[i].1 > 0.0).collect();
+    let active: Vec<usize> = (0..dims.len()).filter(|&i| dims[i].1 > 0.0).collect();
     for mask in 0..(1u32 << active.len()) {
-        let mut f = [1.0; 5];
+        let mut f = [1.0; 9];
         let mut words = Vec::new();
         for (bit, &i) in active.iter().enumerate() {
             let sign = if mask & (1 << bit) != 0 { 1.0 } else { -1.0 };
@@ -181,6 +211,8 @@ pub fn builds(design: &Design) -> Vec<Build> {
             top: f[2],
             trimmer: f[3],
             bottom: f[4],
+            comp: [f[5], f[6], f[7]],
+            regulator: f[8],
         });
     }
     out
@@ -194,7 +226,7 @@ pub fn sites(design: &Design) -> Vec<Site> {
     let rr = design.detector.reference_rail;
     let cr = design.comparator.rail;
     let pick = |rail: Rail, end: Option<bool>| {
-        let (lo, hi) = s.rail_range_v(rail);
+        let (lo, hi) = s.rail_in_service_v(rail);
         match end {
             None => s.rail_v(rail),
             Some(false) => lo,
@@ -276,6 +308,8 @@ pub struct BuiltParts {
     pub drive_value: f64,
     /// The divider at the build's factors.
     pub divider: Divider,
+    /// The compensating part at the build's factors.
+    pub comp: Compensator,
 }
 
 /// The parts of a build.
@@ -292,6 +326,7 @@ pub fn parts(core: &SizedCore, b: &Build) -> BuiltParts {
             trimmer_ohm: d.trimmer_ohm * b.trimmer,
             bottom_ohm: d.bottom_ohm * b.bottom,
         },
+        comp: core.compensation.with_factors(b.comp),
     }
 }
 
@@ -334,26 +369,33 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
         let p = parts(core, b);
         let front_at = |site: &Site| FrontEnd {
             divider: p.divider,
-            reference_rail_v: site.reference_rail_v,
+            reference_rail_v: unit_rail_v(
+                design,
+                b,
+                Some(design.detector.reference_rail),
+                site.reference_rail_v,
+            ),
             ..core.front
         };
+        let element_v =
+            |site: &Site| unit_rail_v(design, b, element_rail(design), site.element_rail_v);
         // Bench: trim this build onto the target.
         let bench_env = Environment {
             ambient_k: bench.ambient_k,
             ..core.env
         };
-        let bench_drive = drive_with(&design.drive, p.drive_value, bench.element_rail_v);
+        let bench_drive = drive_with(&design.drive, p.drive_value, element_v(&bench));
         let at_target = operating_point(&p.element, &bench_drive, &bench_env, u_t).ok();
         let src = at_target.map_or(0.0, |q| bench_drive.sense_source_ohm(q.resistance_ohm));
+        let bench_front = p.comp.front_at(&front_at(&bench), &bench_env, u_t);
         let trim = match design.detector.trimmer_position {
             Some(x) => Trim {
-                needed: at_target
-                    .map(|q| trimmer_position(&front_at(&bench), idle, q.sense_v, src)),
+                needed: at_target.map(|q| trimmer_position(&bench_front, idle, q.sense_v, src)),
                 used: x,
             },
             None => {
                 let needed =
-                    at_target.map(|q| trimmer_position(&front_at(&bench), idle, q.sense_v, src));
+                    at_target.map(|q| trimmer_position(&bench_front, idle, q.sense_v, src));
                 Trim {
                     needed,
                     used: needed.map_or(0.5, |x| x.clamp(0.0, 1.0)),
@@ -366,10 +408,18 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
                 ambient_k: site.ambient_k,
                 ..core.env
             };
-            let drive = drive_with(&design.drive, p.drive_value, site.element_rail_v);
-            let front = front_at(site);
-            let trip_level = front.switching_sense_v(trim.used, idle, src);
-            let release_level = front.switching_sense_v(trim.used, idle.other(), src);
+            let drive = drive_with(&design.drive, p.drive_value, element_v(site));
+            let reference = Reference {
+                front: front_at(site),
+                comp: &p.comp,
+                x: trim.used,
+                sense_source_ohm: src,
+            };
+            let sensing = Sensing {
+                element: &p.element,
+                drive: &drive,
+                env: &env,
+            };
             // The nominal build is also shown without offset drift at every
             // site (the drift table's plain rows).
             let offsets: &[f64] = if site.ambient_k == bench.ambient_k || offset == 0.0 {
@@ -385,8 +435,8 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
                     build: bi,
                     site: si,
                     offset_v: dv,
-                    trip: switching_at(&p.element, &drive, &env, trip_level + dv, u_t, sigma),
-                    release: switching_at(&p.element, &drive, &env, release_level + dv, u_t, sigma),
+                    trip: reference.switching(&sensing, idle, dv, u_t, sigma),
+                    release: reference.switching(&sensing, idle.other(), dv, u_t, sigma),
                 });
             }
             // A second stable state at the airflows the detector lives at.
@@ -412,6 +462,16 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
         sites,
         outcomes,
         hot_states,
+    }
+}
+
+/// A rail's voltage for one unit: a regulated rail scaled by where this
+/// unit's regulator sits; others as the site gives them.
+pub fn unit_rail_v(design: &Design, b: &Build, rail: Option<Rail>, site_v: f64) -> f64 {
+    if rail == Some(Rail::Regulated) && design.supply.regulator.is_some() {
+        site_v * b.regulator
+    } else {
+        site_v
     }
 }
 

@@ -3,9 +3,9 @@
 //! reference cancels.
 
 use super::assemble::to_c;
-use super::corners::{switching_at, tripped_sign, Grid, Outcome, Switching};
+use super::compensation::{Reference, Sensing};
+use super::corners::{tripped_sign, Grid, Outcome, Site, Switching};
 use super::size::{drive_with, element_rail, SizedCore};
-use crate::circuit::frontend::FrontEnd;
 use crate::design::model::Design;
 use crate::element::Environment;
 use crate::report::DriftRow;
@@ -28,6 +28,8 @@ fn row(design: &Design, core: &SizedCore, grid: &Grid, o: &Outcome, label: Strin
         tripped_in_still_air: tripped_still(&o.trip),
         note: note(design, &o.trip, u_nom),
         comparison_only: false,
+        uncompensated_trip_airflow_m_per_s: None,
+        uncompensated_note: None,
     }
 }
 
@@ -64,14 +66,77 @@ fn note(design: &Design, s: &Switching, nominal: Option<f64>) -> String {
     }
 }
 
-/// Drift rows: the nominal parts at every site, the builds that trip
-/// lowest and highest anywhere, and the ratiometric comparison.
-pub fn drift(design: &Design, core: &SizedCore, grid: &Grid) -> Vec<DriftRow> {
+/// Where the nominal build, trimmed on target, trips at every site.
+pub fn nominal_at_sites(design: &Design, core: &SizedCore, sites: &[Site]) -> Vec<Switching> {
+    let sigma = tripped_sign(design, core);
+    let u_t = design.detector.trip_airflow_m_per_s;
+    let value = super::corners::drive_value(core);
+    sites
+        .iter()
+        .map(|site| {
+            let drive = drive_with(&design.drive, value, site.element_rail_v);
+            let env = Environment {
+                ambient_k: site.ambient_k,
+                ..core.env
+            };
+            let sensing = Sensing {
+                element: &core.element,
+                drive: &drive,
+                env: &env,
+            };
+            core.reference(site.reference_rail_v).switching(
+                &sensing,
+                core.idle_state,
+                0.0,
+                u_t,
+                sigma,
+            )
+        })
+        .collect()
+}
+
+/// The drift span: the largest minus the smallest trip airflow of the
+/// nominal build over every site (`None` when some site never switches).
+pub fn span(trips: &[Switching]) -> Option<f64> {
+    let us: Option<Vec<f64>> = trips.iter().map(|s| s.airflow()).collect();
+    let us = us?;
+    let lo = us.iter().copied().fold(f64::INFINITY, f64::min);
+    let hi = us.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+    (lo <= hi).then_some(hi - lo)
+}
+
+/// The nominal build's trips at every site, read off the grid.
+pub fn grid_nominal(grid: &Grid) -> Vec<Switching> {
+    grid.outcomes
+        .iter()
+        .filter(|o| o.build == 0 && o.offset_v == 0.0)
+        .map(|o| o.trip.clone())
+        .collect()
+}
+
+/// Drift rows: the nominal parts at every site (beside the uncompensated
+/// design's trip there, when compensated), the builds that trip lowest and
+/// highest anywhere, and the ratiometric comparison.
+pub fn drift(
+    design: &Design,
+    core: &SizedCore,
+    grid: &Grid,
+    uncompensated: Option<&[Switching]>,
+) -> Vec<DriftRow> {
     let mut rows: Vec<DriftRow> = grid
         .outcomes
         .iter()
         .filter(|o| o.build == 0 && o.offset_v == 0.0)
-        .map(|o| row(design, core, grid, o, grid.sites[o.site].label.clone()))
+        .map(|o| {
+            let mut r = row(design, core, grid, o, grid.sites[o.site].label.clone());
+            r.uncompensated_trip_airflow_m_per_s = uncompensated
+                .and_then(|u| u.get(o.site))
+                .and_then(|s| s.airflow());
+            r.uncompensated_note = uncompensated
+                .and_then(|u| u.get(o.site))
+                .map(|s| note(design, s, Some(design.detector.trip_airflow_m_per_s)));
+            r
+        })
         .collect();
     // The extremes over every build, site and offset drift.
     let key = |o: &&Outcome| match o.trip {
@@ -137,14 +202,17 @@ fn ratiometric_rows(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
             er == ref_rail,
         ),
     ] {
-        let front = FrontEnd {
-            reference_rail_v: ref_v,
-            ..core.front
+        let reference = Reference {
+            sense_source_ohm: src,
+            ..core.reference(ref_v)
         };
-        let level = front.switching_sense_v(core.trimmer_x, core.idle_state, src);
-        let rel = front.switching_sense_v(core.trimmer_x, core.idle_state.other(), src);
-        let trip = switching_at(&core.element, &drive, &env, level, u_t, sigma);
-        let release = switching_at(&core.element, &drive, &env, rel, u_t, sigma);
+        let sensing = Sensing {
+            element: &core.element,
+            drive: &drive,
+            env: &env,
+        };
+        let trip = reference.switching(&sensing, core.idle_state, 0.0, u_t, sigma);
+        let release = reference.switching(&sensing, core.idle_state.other(), 0.0, u_t, sigma);
         let u = trip.airflow();
         out.push(DriftRow {
             condition: label.into(),
@@ -159,7 +227,55 @@ fn ratiometric_rows(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
             tripped_in_still_air: tripped_still(&trip),
             note: note(design, &trip, core.trip_airflow_m_per_s),
             comparison_only,
+            uncompensated_trip_airflow_m_per_s: None,
+            uncompensated_note: None,
         });
     }
     out
+}
+
+/// Trip-point drift with ambient, m/s per K: the comparator's switching
+/// level (trimmer held at its sized setting, rails nominal) is held and the
+/// trip airflow re-solved at ambient ± 1 K; central difference.
+pub fn ambient_slope(design: &Design, core: &SizedCore) -> Option<f64> {
+    let value = match core.drive {
+        crate::drive::Drive::SeriesResistor { series_ohm, .. } => series_ohm,
+        crate::drive::Drive::ConstantCurrent { current_a } => current_a,
+    };
+    let rail_v = match core.drive {
+        crate::drive::Drive::SeriesResistor { rail_v, .. } => rail_v,
+        crate::drive::Drive::ConstantCurrent { .. } => 0.0,
+    };
+    let drive = drive_with(&design.drive, value, rail_v);
+    let src = drive.sense_source_ohm(core.at_trip.resistance_ohm);
+    let reference = Reference {
+        sense_source_ohm: src,
+        ..core.reference(core.front.reference_rail_v)
+    };
+    let sigma = super::corners::tripped_sign(design, core);
+    let at = |dt: f64| {
+        let env = Environment {
+            ambient_k: core.env.ambient_k + dt,
+            ..core.env
+        };
+        let sensing = Sensing {
+            element: &core.element,
+            drive: &drive,
+            env: &env,
+        };
+        reference
+            .switching(
+                &sensing,
+                core.idle_state,
+                0.0,
+                core.trip_airflow_m_per_s
+                    .unwrap_or(design.detector.trip_airflow_m_per_s),
+                sigma,
+            )
+            .airflow()
+    };
+    match (at(1.0), at(-1.0)) {
+        (Some(hi), Some(lo)) => Some(0.5 * (hi - lo)),
+        _ => None,
+    }
 }

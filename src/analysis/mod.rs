@@ -2,7 +2,9 @@
 
 pub mod assemble;
 pub mod checks;
+pub mod choice;
 pub mod compare;
+pub mod compensation;
 pub mod corners;
 pub mod drift;
 pub mod output;
@@ -19,14 +21,18 @@ pub use size::SizeError;
 
 /// Size and check a design: the whole `size` job.
 pub fn size(design: &Design) -> Result<Report, SizeError> {
+    let choice = choice::resolve(design);
+    let design = &choice.design;
     let core = size::size_core(design)?;
     let grid = corners::evaluate(design, &core);
     let mut values = assemble::core_values(design, &core);
     let mut checks = checks::trip::checks(design, &grid);
     checks.extend(checks::trimmer::checks(design, &grid));
     checks.extend(checks::element::checks(design, &core, &grid));
+    checks.extend(checks::compensation::checks(design, &core, &grid));
     checks.extend(steady_state_check(&core));
-    let drift = drift::drift(design, &core, &grid);
+    let (compensation, uncompensated) = compensation_section(&choice, &core, &grid, &values);
+    let drift = drift::drift(design, &core, &grid, uncompensated.as_deref());
     let section = output::circuit_section(design, &core, &grid, &mut values);
     let view = stage::StageView::new(design, &core.output, core.front.feedback_ohm.is_some());
     checks.extend(checks::stage::checks(&view));
@@ -95,6 +101,7 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
         trip: assemble::trip_summary(design, &core),
         values,
         drift,
+        compensation,
         supply: section.supply,
         checks,
         warnings,
@@ -102,6 +109,53 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
         assumptions: design.assumptions.clone(),
     }
     .with_verdict())
+}
+
+/// The compensation section, and the uncompensated design's trip at every
+/// site (only when there is compensation to compare with).
+fn compensation_section(
+    choice: &choice::Choice,
+    core: &size::SizedCore,
+    grid: &corners::Grid,
+    values: &[crate::report::ValueRow],
+) -> (
+    crate::report::CompensationSection,
+    Option<Vec<switching::Switching>>,
+) {
+    let design = &choice.design;
+    let own = drift::grid_nominal(grid);
+    let slope = drift::ambient_slope(design, core);
+    let (plain, plain_slope) = if core.compensation.is_some() {
+        let d = choice::with_kind(design, crate::design::model::CompensationKind::None);
+        match size::size_core(&d) {
+            Ok(plain) => (
+                Some(drift::nominal_at_sites(&d, &plain, &grid.sites)),
+                drift::ambient_slope(&d, &plain),
+            ),
+            Err(_) => (None, None),
+        }
+    } else {
+        (Some(own.clone()), slope)
+    };
+    let section = crate::report::CompensationSection {
+        kind: design.compensation.kind.name().into(),
+        why: choice.why.clone(),
+        drift_span_m_per_s: drift::span(&own),
+        uncompensated_drift_span_m_per_s: plain.as_deref().and_then(drift::span),
+        ambient_slope_m_per_s_per_k: slope,
+        uncompensated_ambient_slope_m_per_s_per_k: plain_slope,
+        parts: values
+            .iter()
+            .filter(|v| ["RC1", "RT1", "RR3"].contains(&v.designator.as_str()))
+            .map(|v| v.designator.clone())
+            .collect(),
+    };
+    let uncompensated = if core.compensation.is_some() {
+        plain
+    } else {
+        None
+    };
+    (section, uncompensated)
 }
 
 /// `element-steady-state`: a steady state at every airflow of the table
@@ -170,6 +224,10 @@ pub fn unsized_report(design: &Design, error: &SizeError) -> Report {
         },
         values: Vec::new(),
         drift: Vec::new(),
+        compensation: crate::report::CompensationSection {
+            kind: design.compensation.kind.name().into(),
+            ..Default::default()
+        },
         supply: crate::report::SupplyBudget::default(),
         checks: vec![
             Check::judged("design-sizable", "the design can be sized", false)

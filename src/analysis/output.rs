@@ -94,6 +94,7 @@ pub fn circuit_section(
             .unwrap_or(usize::MAX)
     });
     s.rated = rate_resistors(design, &loads, values, &mut s.values, design.ambient.max_k);
+    rate_compensating_part(design, core, values);
     s.supply = supply_budget(design, core, grid, &view, &mut s.values);
     s.values.extend(decoupling_rows(design));
     s.cautions.extend(hot_part_caution(
@@ -359,23 +360,30 @@ fn core_dissipations(
         });
     }
     let (_, _, vref_hi) = rail3(design, design.detector.reference_rail);
-    let (p_top, p_trim, p_bot) = core.front.divider.dissipations_w(vref_hi);
+    let d = core.front.divider;
+    let arm = compensation_arm(design, core, vref_hi);
+    let i = vref_hi / (d.total_ohm() + arm.lowest_ohm);
     let case = format!("divider current at the highest reference rail ({vref_hi:.2} V)");
-    loads.push(Dissipation {
-        designator: "RR1",
-        watts: p_top,
-        case: case.clone(),
-    });
-    loads.push(Dissipation {
-        designator: "RV1",
-        watts: p_trim,
-        case: case.clone(),
-    });
-    loads.push(Dissipation {
-        designator: "RR2",
-        watts: p_bot,
-        case,
-    });
+    for (designator, ohm) in [
+        ("RR1", d.top_ohm),
+        ("RV1", d.trimmer_ohm),
+        ("RR2", d.bottom_ohm),
+    ] {
+        if ohm > 0.0 {
+            loads.push(Dissipation {
+                designator,
+                watts: i * i * ohm,
+                case: case.clone(),
+            });
+        }
+    }
+    if let Some(w) = arm.parallel_w {
+        loads.push(Dissipation {
+            designator: "RR3",
+            watts: w,
+            case: format!("the thermistor network at its highest voltage ({vref_hi:.2} V rail)"),
+        });
+    }
     if let Some(rf) = core.front.feedback_ohm {
         // Both ends of the feedback path lie between ground and the highest
         // rail, so its current is at most V_max/(R_F + R_I).
@@ -408,6 +416,70 @@ fn core_dissipations(
         });
     }
     loads
+}
+
+/// The compensating part's figures that the bill and the budget need.
+struct CompensationArm {
+    /// The network's lowest resistance over the ambient range (0 without
+    /// one), ohm: the divider's largest current.
+    lowest_ohm: f64,
+    /// The compensating part's largest dissipation, W.
+    part_w: Option<f64>,
+    /// The linearising resistor's largest dissipation, W.
+    parallel_w: Option<f64>,
+}
+
+/// The compensating part at both ambient ends, in still air (where a twin
+/// runs warmest), on a reference rail of `rail_v`.
+fn compensation_arm(design: &Design, core: &SizedCore, rail_v: f64) -> CompensationArm {
+    let mut arm = CompensationArm {
+        lowest_ohm: f64::INFINITY,
+        part_w: None,
+        parallel_w: None,
+    };
+    for t in [design.ambient.min_k, design.ambient.max_k] {
+        let env = crate::element::Environment {
+            ambient_k: t,
+            ..core.env
+        };
+        let Some(st) = core
+            .compensation
+            .state(&core.front.divider, rail_v, &env, 0.0)
+        else {
+            return CompensationArm {
+                lowest_ohm: 0.0,
+                ..arm
+            };
+        };
+        arm.lowest_ohm = arm.lowest_ohm.min(st.resistance_ohm);
+        arm.part_w = Some(arm.part_w.unwrap_or(0.0).max(st.power_w));
+        if let super::compensation::Compensator::Thermistor(n) = &core.compensation {
+            let v =
+                rail_v * st.resistance_ohm / (core.front.divider.total_ohm() + st.resistance_ohm);
+            arm.parallel_w = Some(arm.parallel_w.unwrap_or(0.0).max(v * v / n.parallel_ohm));
+        }
+    }
+    arm
+}
+
+/// Write the compensating part's dissipation on its bill row (it is not a
+/// resistor with a standard power rating).
+fn rate_compensating_part(design: &Design, core: &SizedCore, values: &mut [ValueRow]) {
+    let (_, _, vref_hi) = rail3(design, design.detector.reference_rail);
+    let arm = compensation_arm(design, core, vref_hi);
+    let Some(w) = arm.part_w else {
+        return;
+    };
+    if let Some(v) = values
+        .iter_mut()
+        .find(|v| v.designator == "RC1" || v.designator == "RT1")
+    {
+        v.dissipation_w = Some(w);
+        v.rating = format!(
+            "dissipates at most {} (its self-heating is in the model)",
+            eng(w, "W")
+        );
+    }
 }
 
 /// The supply budget (currents idle and tripped, the regulator's load,
@@ -770,7 +842,11 @@ fn rail_currents(
     }
     // Divider and comparator.
     let rr = design.detector.reference_rail;
-    add(rr, v_of(rr) / core.front.divider.total_ohm());
+    let arm = compensation_arm(design, core, v_of(rr));
+    add(
+        rr,
+        v_of(rr) / (core.front.divider.total_ohm() + arm.lowest_ohm),
+    );
     let cr = design.comparator.rail;
     add(cr, design.comparator.supply_current_a);
     let vcc = v_of(cr);

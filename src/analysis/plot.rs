@@ -3,9 +3,9 @@
 //! at the rail ends, for the nominal parts. Renderers draw them
 //! (`render::svg`).
 
-use super::corners::{drive_value, switching_at, tripped_sign};
+use super::compensation::Sensing;
+use super::corners::{drive_value, tripped_sign};
 use super::size::{drive_with, element_rail, SizedCore};
-use crate::circuit::frontend::FrontEnd;
 use crate::design::Design;
 use crate::element::Environment;
 use crate::solve::operating_point;
@@ -61,7 +61,7 @@ pub fn transfer_plot(design: &Design, core: &SizedCore) -> TransferPlot {
     let u_t = design.detector.trip_airflow_m_per_s;
     let s = &design.supply;
     let rail_end = |high: bool, rail| {
-        let (a, b) = s.rail_range_v(rail);
+        let (a, b) = s.rail_in_service_v(rail);
         if high {
             b
         } else {
@@ -78,27 +78,27 @@ pub fn transfer_plot(design: &Design, core: &SizedCore) -> TransferPlot {
     let trip_at = |t: f64, high: bool| {
         let el_v = element_rail(design).map_or(0.0, |r| rail_end(high, r));
         let drive = drive_with(&design.drive, drive_value(core), el_v);
-        let front = FrontEnd {
-            reference_rail_v: rail_end(high, design.detector.reference_rail),
-            ..core.front
-        };
-        let level = front.switching_sense_v(core.trimmer_x, core.idle_state, src);
+        let reference = core.reference(rail_end(high, design.detector.reference_rail));
         let env = Environment {
             ambient_k: t,
             ..core.env
         };
-        switching_at(&core.element, &drive, &env, level, u_t, sigma).airflow()
+        let sensing = Sensing {
+            element: &core.element,
+            drive: &drive,
+            env: &env,
+        };
+        reference
+            .switching(&sensing, core.idle_state, 0.0, u_t, sigma)
+            .airflow()
     };
+    let bench = core.compensation.front_at(&core.front, &core.env, u_t);
     TransferPlot {
         title: design.title.clone(),
         airflow_m_per_s: airflow,
         sense_v: sense,
-        trip_level_v: core
-            .front
-            .switching_sense_v(core.trimmer_x, core.idle_state, src),
-        release_level_v: core
-            .front
-            .switching_sense_v(core.trimmer_x, core.idle_state.other(), src),
+        trip_level_v: bench.switching_sense_v(core.trimmer_x, core.idle_state, src),
+        release_level_v: bench.switching_sense_v(core.trimmer_x, core.idle_state.other(), src),
         trip_airflow_m_per_s: core.trip_airflow_m_per_s,
         release_airflow_m_per_s: core.release_airflow_m_per_s,
         band_m_per_s: (lo, hi),

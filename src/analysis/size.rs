@@ -2,11 +2,13 @@
 //! drive, the operating points, the reference divider and trimmer, the
 //! hysteresis network — and the trip point they give.
 
+use super::compensation::{sizing as comp_sizing, Compensator, Reference, Sensing};
 use crate::circuit::divider::{Divider, DividerError};
 use crate::circuit::frontend::{Arrangement, FrontEnd, OutputState};
 use crate::circuit::hysteresis::{DEFAULT_SERIES_INPUT_OHM, MIN_FEEDBACK_TO_PULLUP_RATIO};
 use crate::design::model::{
-    Design, DriveSpec, HysteresisSpec, OverheatTarget, Rail, Sizable, StageKind, TripDirection,
+    CompensationKind, Design, DriveSpec, HysteresisSpec, OverheatTarget, Rail, Sizable, StageKind,
+    TripDirection,
 };
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
@@ -69,6 +71,9 @@ pub enum SizeError {
     /// Hysteresis cannot be sized.
     #[error("hysteresis: {0}")]
     Hysteresis(String),
+    /// The ambient compensation cannot be sized.
+    #[error("ambient compensation: {0}")]
+    Compensation(String),
 }
 
 fn solve_ctx(context: &str) -> impl Fn(SolveError) -> SizeError + '_ {
@@ -129,6 +134,30 @@ pub struct SizedCore {
     pub needed_ratio: (f64, f64),
     /// Notes for the report (why the feedback sits where it does, …).
     pub notes: Vec<String>,
+    /// The ambient compensation part (nominal values); the divider's fixed
+    /// parts are in `front.divider`.
+    pub compensation: Compensator,
+}
+
+impl SizedCore {
+    /// The sense node's source resistance at the trip point, ohm.
+    pub fn sense_source_ohm(&self) -> f64 {
+        self.drive.sense_source_ohm(self.at_trip.resistance_ohm)
+    }
+
+    /// The nominal build's reference side, with its trimmer setting and the
+    /// reference rail at `rail_v`.
+    pub fn reference(&self, rail_v: f64) -> Reference<'_> {
+        Reference {
+            front: FrontEnd {
+                reference_rail_v: rail_v,
+                ..self.front
+            },
+            comp: &self.compensation,
+            x: self.trimmer_x,
+            sense_source_ohm: self.sense_source_ohm(),
+        }
+    }
 }
 
 /// Build the drive at given rail voltage from the design's drive kind and
@@ -404,62 +433,86 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         .divider_current_a
         .unwrap_or(DEFAULT_DIVIDER_CURRENT_A);
     let det = &design.detector;
-    let (divider, divider_exact) = match (det.top_ohm, det.trimmer_ohm, det.bottom_ohm) {
-        (Sizable::Fixed(t), Sizable::Fixed(p), Sizable::Fixed(b)) => (
-            Divider {
-                top_ohm: t,
-                trimmer_ohm: p,
-                bottom_ohm: b,
-            },
-            None,
-        ),
-        (top, trim, bottom) => {
-            // Widen the asked-for span until the divider, with its parts at
-            // their tolerance ends, still reaches every build's need.
-            let tol = det.divider_tolerances;
-            let (need_lo, need_hi) = (k_lo.min(k_t), k_hi.max(k_t));
-            let mut widen = 1.0;
-            let mut best = None;
-            for _ in 0..DIVIDER_WIDENINGS {
-                let lo = k_t - widen * (k_t - need_lo);
-                let hi = k_t + widen * (need_hi - k_t);
-                let Ok((d, exact)) = Divider::size_with(
-                    ref_rail_v,
-                    k_t,
-                    lo,
-                    hi,
-                    current,
-                    design.e_series,
-                    fixed(top),
-                    fixed(trim),
-                    fixed(bottom),
-                ) else {
-                    break;
-                };
-                best = Some((d, exact));
-                let (k0, k1) = d.reach_at_tolerances(tol.top, tol.trimmer, tol.bottom);
-                if k0 <= need_lo && k1 >= need_hi {
-                    break;
+    let mut compensation = Compensator::None;
+    let mut comp_notes = Vec::new();
+    let kind = design.compensation.kind;
+    let (divider, divider_exact) =
+        if matches!(kind, CompensationKind::Twin | CompensationKind::Thermistor) {
+            let sized = comp_sizing::size(
+                kind,
+                &comp_sizing::Target {
+                    design,
+                    element: &element,
+                    drive: &drive,
+                    env: &env,
+                    trip_airflow_m_per_s: u_t,
+                    ratio: k_t,
+                    span: (k_lo, k_hi),
+                    rail_v: ref_rail_v,
+                    overheat_k: at_trip.temperature_k - env.ambient_k,
+                },
+            )?;
+            compensation = sized.comp;
+            comp_notes = sized.notes;
+            (sized.divider, Some(sized.exact))
+        } else {
+            match (det.top_ohm, det.trimmer_ohm, det.bottom_ohm) {
+                (Sizable::Fixed(t), Sizable::Fixed(p), Sizable::Fixed(b)) => (
+                    Divider {
+                        top_ohm: t,
+                        trimmer_ohm: p,
+                        bottom_ohm: b,
+                    },
+                    None,
+                ),
+                (top, trim, bottom) => {
+                    // Widen the asked-for span until the divider, with its parts at
+                    // their tolerance ends, still reaches every build's need.
+                    let tol = det.divider_tolerances;
+                    let (need_lo, need_hi) = (k_lo.min(k_t), k_hi.max(k_t));
+                    let mut widen = 1.0;
+                    let mut best = None;
+                    for _ in 0..DIVIDER_WIDENINGS {
+                        let lo = k_t - widen * (k_t - need_lo);
+                        let hi = k_t + widen * (need_hi - k_t);
+                        let Ok((d, exact)) = Divider::size_with(
+                            ref_rail_v,
+                            k_t,
+                            lo,
+                            hi,
+                            current,
+                            design.e_series,
+                            fixed(top),
+                            fixed(trim),
+                            fixed(bottom),
+                        ) else {
+                            break;
+                        };
+                        best = Some((d, exact));
+                        let (k0, k1) = d.reach_at_tolerances(tol.top, tol.trimmer, tol.bottom);
+                        if k0 <= need_lo && k1 >= need_hi {
+                            break;
+                        }
+                        widen *= 1.25;
+                    }
+                    let (d, (exact_top, exact_bottom)) = match best {
+                        Some(b) => b,
+                        None => Divider::size_with(
+                            ref_rail_v,
+                            k_t,
+                            need_lo,
+                            need_hi,
+                            current,
+                            design.e_series,
+                            fixed(top),
+                            fixed(trim),
+                            fixed(bottom),
+                        )?,
+                    };
+                    (d, Some((exact_top, d.trimmer_ohm, exact_bottom)))
                 }
-                widen *= 1.25;
             }
-            let (d, (exact_top, exact_bottom)) = match best {
-                Some(b) => b,
-                None => Divider::size_with(
-                    ref_rail_v,
-                    k_t,
-                    need_lo,
-                    need_hi,
-                    current,
-                    design.e_series,
-                    fixed(top),
-                    fixed(trim),
-                    fixed(bottom),
-                )?,
-            };
-            (d, Some((exact_top, d.trimmer_ohm, exact_bottom)))
-        }
-    };
+        };
 
     let node = super::stage::output_node(design, stage);
     let mut notes = Vec::new();
@@ -504,8 +557,17 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         }
         (HysteresisSpec::None, Sizable::Auto) => {}
         (want, Sizable::Auto) => {
+            let bench_front = compensation.front_at(&front, &env, u_t);
             let rf = size_feedback(
-                &element, &drive, &env, &front, idle_state, v_t, u_t, sense_src, want,
+                &element,
+                &drive,
+                &env,
+                &bench_front,
+                idle_state,
+                v_t,
+                u_t,
+                sense_src,
+                want,
             )?;
             feedback_exact = Some(rf);
             front.feedback_ohm = Some(design.e_series.nearest(rf));
@@ -527,19 +589,34 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
     // Trimmer position that puts the trip point on target.
     // A setting given in the file is analysed as it is; otherwise the one
     // that puts the trip point on target.
-    let x = det
-        .trimmer_position
-        .unwrap_or_else(|| trimmer_position(&front, idle_state, v_t, sense_src));
-    let trip_level = front.switching_sense_v(x, idle_state, sense_src);
-    let release_level = front.switching_sense_v(x, idle_state.other(), sense_src);
+    let x = det.trimmer_position.unwrap_or_else(|| {
+        trimmer_position(
+            &compensation.front_at(&front, &env, u_t),
+            idle_state,
+            v_t,
+            sense_src,
+        )
+    });
     let sigma = sens.signum()
         * if design.detector.trip_on == TripDirection::Rising {
             1.0
         } else {
             -1.0
         };
-    let trip = super::switching::switching_at(&element, &drive, &env, trip_level, u_t, sigma);
-    let release = super::switching::switching_at(&element, &drive, &env, release_level, u_t, sigma);
+    let reference = Reference {
+        front,
+        comp: &compensation,
+        x,
+        sense_source_ohm: sense_src,
+    };
+    let sensing = Sensing {
+        element: &element,
+        drive: &drive,
+        env: &env,
+    };
+    let trip = reference.switching(&sensing, idle_state, 0.0, u_t, sigma);
+    let release = reference.switching(&sensing, idle_state.other(), 0.0, u_t, sigma);
+    notes.extend(comp_notes);
 
     Ok(SizedCore {
         env,
@@ -564,6 +641,7 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         unsolved,
         needed_ratio: (k_lo, k_hi),
         notes,
+        compensation,
     })
 }
 

@@ -21,10 +21,12 @@
 //! histogram (resolution [`HISTOGRAM_RESOLUTION`]) and the parameters'
 //! shares from running sums.
 
-use super::corners::{self, switching_at, tripped_sign, Switching};
+use super::compensation::{Compensator, Reference, Sensing};
+use super::corners::{self, tripped_sign, Switching};
 use super::size::{drive_with, element_rail, trimmer_position, SizedCore};
 use crate::circuit::divider::Divider;
 use crate::circuit::frontend::FrontEnd;
+use crate::design::model::CompensationKind;
 use crate::design::model::{Design, Rail, SpreadDistribution, TripDirection};
 use crate::element::{Element, Environment};
 use crate::solve::operating_point;
@@ -58,7 +60,7 @@ pub const DEFAULT_TRIALS: u64 = 10_000;
 pub const DEFAULT_SEED: u64 = 20_261_202;
 
 /// The varied parameters, in report order.
-pub const PARAMETERS: [&str; 10] = [
+pub const PARAMETERS: [&str; 13] = [
     "element R0",
     "drive",
     "divider top",
@@ -69,6 +71,9 @@ pub const PARAMETERS: [&str; 10] = [
     "ambient",
     "input voltage",
     "regulator output",
+    "twin or thermistor R25",
+    "thermistor beta",
+    "linearising resistor",
 ];
 
 const N: usize = PARAMETERS.len();
@@ -238,6 +243,16 @@ pub struct SpreadReport {
 fn tolerances(design: &Design) -> [f64; N] {
     let t = design.detector.divider_tolerances;
     let reg = design.supply.regulator.map_or(0.0, |r| r.tolerance);
+    let c = &design.compensation;
+    let comp = match c.kind {
+        CompensationKind::Twin => [c.twin.tolerance, 0.0, 0.0],
+        CompensationKind::Thermistor => [
+            c.thermistor.r25_tolerance,
+            c.thermistor.beta_tolerance,
+            t.top,
+        ],
+        _ => [0.0; 3],
+    };
     [
         design.element_tolerance,
         design.drive_tolerance,
@@ -249,6 +264,9 @@ fn tolerances(design: &Design) -> [f64; N] {
         0.5 * (design.ambient.max_k - design.ambient.min_k),
         0.5 * (design.supply.input_max_v - design.supply.input_min_v),
         reg,
+        comp[0],
+        comp[1],
+        comp[2],
     ]
 }
 
@@ -291,6 +309,7 @@ struct Build {
     element: Element,
     drive_value: f64,
     divider: Divider,
+    comp: Compensator,
     offset_v: f64,
     regulated_v: f64,
 }
@@ -315,6 +334,7 @@ fn build_of(cx: &Context, z: &[f64; N]) -> Build {
             trimmer_ohm: d.trimmer_ohm * f(3),
             bottom_ohm: d.bottom_ohm * f(4),
         },
+        comp: core.compensation.with_factors([f(10), f(11), f(12)]),
         offset_v: cx.tol[5] * z[5],
         regulated_v: cx
             .design
@@ -343,23 +363,31 @@ fn switching(
     };
     let el_v = element_rail(design).map_or(0.0, |r| rail_v(design, r, input_v, b.regulated_v));
     let drive = drive_with(&design.drive, b.drive_value, el_v);
-    let front = FrontEnd {
-        divider: b.divider,
-        reference_rail_v: rail_v(
-            design,
-            design.detector.reference_rail,
-            input_v,
-            b.regulated_v,
-        ),
-        ..core.front
+    let reference = Reference {
+        front: FrontEnd {
+            divider: b.divider,
+            reference_rail_v: rail_v(
+                design,
+                design.detector.reference_rail,
+                input_v,
+                b.regulated_v,
+            ),
+            ..core.front
+        },
+        comp: &b.comp,
+        x,
+        sense_source_ohm: drive.sense_source_ohm(core.at_trip.resistance_ohm),
     };
-    let src = drive.sense_source_ohm(core.at_trip.resistance_ohm);
+    let sensing = Sensing {
+        element: &b.element,
+        drive: &drive,
+        env: &env,
+    };
     let u_t = design.detector.trip_airflow_m_per_s;
-    let trip = front.switching_sense_v(x, core.idle_state, src) + dv;
-    let release = front.switching_sense_v(x, core.idle_state.other(), src) + dv;
     (
-        switching_at(&b.element, &drive, &env, trip, u_t, cx.sigma),
-        with_release.then(|| switching_at(&b.element, &drive, &env, release, u_t, cx.sigma)),
+        reference.switching(&sensing, core.idle_state, dv, u_t, cx.sigma),
+        with_release
+            .then(|| reference.switching(&sensing, core.idle_state.other(), dv, u_t, cx.sigma)),
     )
 }
 
@@ -392,6 +420,9 @@ fn bench_position(cx: &Context, b: &Build) -> Option<f64> {
         ),
         ..core.front
     };
+    let front = b
+        .comp
+        .front_at(&front, &env, design.detector.trip_airflow_m_per_s);
     Some(trimmer_position(
         &front,
         core.idle_state,
@@ -744,6 +775,9 @@ fn worst_case(design: &Design, core: &SizedCore, cx: &Context) -> WorstCase {
                 z[2] = (b.top - 1.0) / cx.tol[2].max(f64::MIN_POSITIVE);
                 z[3] = (b.trimmer - 1.0) / cx.tol[3].max(f64::MIN_POSITIVE);
                 z[4] = (b.bottom - 1.0) / cx.tol[4].max(f64::MIN_POSITIVE);
+                for k in 0..3 {
+                    z[10 + k] = (b.comp[k] - 1.0) / cx.tol[10 + k].max(f64::MIN_POSITIVE);
+                }
                 z[6] = zc;
                 z[9] = zr;
                 let build = build_of(cx, &z);
@@ -841,7 +875,9 @@ pub fn spread(
     let trimmable_share = total.trimmable as f64 / n;
     let false_trip_share = total.false_trip as f64 / n;
     let s = design.spread;
-    let units = ["%", "%", "%", "%", "%", "V", "%", "°C", "V", "%"];
+    let units = [
+        "%", "%", "%", "%", "%", "V", "%", "°C", "V", "%", "%", "%", "%",
+    ];
     let tolerances = (0..N)
         .map(|i| ToleranceRow {
             parameter: PARAMETERS[i].into(),

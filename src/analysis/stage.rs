@@ -243,10 +243,10 @@ pub(crate) fn plan(design: &Design, stage: StageKind) -> Plan {
                     .e_series
                     .at_or_below(rb_exact.max(0.1 * r_sum).max(1.0));
                 // Lowering R_BE for the hold-off must not starve the base:
-                // stop while R_B keeps its share of the series sum; past
-                // that the check reports the conflict.
+                // stop once R_B is squeezed to the token share the pull-up
+                // leaves it; past that the check reports the conflict.
                 let rbe_next = k * rb / (1.0 - k);
-                if k >= 1.0 || rbe / (rb + rbe) <= k || rb_exact < 0.5 * r_sum {
+                if k >= 1.0 || rbe / (rb + rbe) <= k || rb_exact < 0.1 * r_sum {
                     break;
                 }
                 rbe_exact = rbe_next;

@@ -436,10 +436,11 @@ fn size(path: &Path, format: Format, table: CsvTable, unit: AirUnit) -> ExitCode
                 CsvTable::Drift => render::csv::Table::Drift,
             },
         ),
-        Format::Svg => match draftwire::analysis::size::size_core(&design) {
-            Ok(core) => {
-                render::svg::transfer(&draftwire::analysis::plot::transfer_plot(&design, &core))
-            }
+        Format::Svg => match draftwire::analysis::choice::size_resolved(&design) {
+            Ok((choice, core)) => render::svg::transfer(&draftwire::analysis::plot::transfer_plot(
+                &choice.design,
+                &core,
+            )),
             Err(e) => {
                 eprintln!("design failed: {file}: {e}: nothing to draw");
                 return ExitCode::from(EXIT_DESIGN_FAIL);

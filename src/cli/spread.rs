@@ -29,6 +29,7 @@ pub fn run(
         eprintln!("error: --trials: expected at least 1 trial, found 0");
         return ExitCode::from(EXIT_INPUT);
     }
+    let design = draftwire::analysis::choice::resolve(&design).design;
     let core = match size_core(&design) {
         Ok(c) => c,
         Err(e) => {

@@ -78,6 +78,8 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     };
     let ratings = build_ratings(rd, raw.ratings.as_ref())?;
     let spread = build_spread(rd, raw.spread.as_ref(), &element)?;
+    let compensation =
+        super::compensation::build_compensation(rd, raw.compensation.as_ref(), element_tolerance)?;
 
     Ok(Design {
         title,
@@ -96,6 +98,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         output,
         ratings,
         spread,
+        compensation,
         assumptions: std::mem::take(&mut rd.assumptions),
     })
 }
@@ -205,6 +208,27 @@ fn build_supply(rd: &mut Reader<'_>, s: &raw::RawSupply) -> R<Supply> {
             let tolerance = rd.or_default(&g.tolerance, crate::circuit::regulator::LinearRegulator::typical_fixed_5v().output_tolerance, "supply.regulator.tolerance not given: ±4 % assumed (typical of the fixed linear regulator class)", |r, v| {
                 r.fraction_in(v, "supply.regulator.tolerance", 0.0, 0.5)
             })?;
+            let regulation = match &g.regulation {
+                None => {
+                    rd.assumptions.push("supply.regulator.regulation not given: a unit's output may move by its whole tolerance in service (the safe side)".into());
+                    tolerance
+                }
+                Some(v) => {
+                    let x = rd.fraction_in(v, "supply.regulator.regulation", 0.0, 0.5)?;
+                    if x > tolerance {
+                        return Err(rd.err(
+                            Some(v.span()),
+                            "supply.regulator.regulation",
+                            format!(
+                                "expected at most the tolerance ({} %): the regulation band is the part of the tolerance one unit moves by in service; found {} %",
+                                crate::quantity::format_sig(100.0 * tolerance, 3),
+                                crate::quantity::format_sig(100.0 * x, 3)
+                            ),
+                        ));
+                    }
+                    x
+                }
+            };
             let theta_ja_k_per_w = rd.or_default(
                 &g.theta_ja,
                 65.0,
@@ -220,6 +244,7 @@ fn build_supply(rd: &mut Reader<'_>, s: &raw::RawSupply) -> R<Supply> {
             Some(RegulatorSpec {
                 output_v,
                 tolerance,
+                regulation,
                 dropout_v,
                 quiescent_a,
                 theta_ja_k_per_w,

@@ -1,6 +1,7 @@
 //! The design file: raw TOML mirror, validation into a model, diagnostics.
 
 pub mod build;
+pub mod compensation;
 pub mod diagnostic;
 pub mod element;
 pub mod model;

@@ -119,8 +119,13 @@ pub struct Ambient {
 pub struct RegulatorSpec {
     /// Output voltage, V.
     pub output_v: f64,
-    /// Output tolerance (fraction).
+    /// Output tolerance over line, load and temperature (fraction): the
+    /// furthest any unit's output lies from nominal.
     pub tolerance: f64,
+    /// How far one unit's output moves in service (fraction; at most the
+    /// tolerance): what is left once the bench trim has taken out where its
+    /// own output sits.
+    pub regulation: f64,
     /// Dropout voltage, V.
     pub dropout_v: f64,
     /// Quiescent current, A.
@@ -164,6 +169,24 @@ impl Supply {
             ),
             _ => (self.input_min_v, self.input_max_v),
         }
+    }
+    /// Lowest and highest voltage of a rail in service around a unit whose
+    /// regulator sits at its nominal output: the input range, or the
+    /// regulator's regulation band.
+    pub fn rail_in_service_v(&self, rail: Rail) -> (f64, f64) {
+        match (rail, self.regulator) {
+            (Rail::Regulated, Some(r)) => (
+                r.output_v * (1.0 - r.regulation),
+                r.output_v * (1.0 + r.regulation),
+            ),
+            _ => (self.input_min_v, self.input_max_v),
+        }
+    }
+    /// The part of the regulator's tolerance that one unit keeps for
+    /// life (its initial offset, trimmed out on the bench), fraction.
+    pub fn regulator_offset_tolerance(&self) -> f64 {
+        self.regulator
+            .map_or(0.0, |r| (r.tolerance - r.regulation).max(0.0))
     }
 }
 
@@ -416,6 +439,77 @@ impl SpreadDistribution {
     }
 }
 
+/// Which ambient compensation the reference gets (`[compensation] kind`).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum CompensationKind {
+    /// A fixed-ratio reference divider: the trip point follows ambient.
+    None,
+    /// An unheated twin of the sensing element in the reference divider's
+    /// bottom leg: a Wheatstone bridge.
+    Twin,
+    /// An NTC thermistor with a linearising resistor in one leg of the
+    /// reference divider.
+    Thermistor,
+    /// Whichever of the three holds the trip band at every condition with
+    /// the fewest parts.
+    Auto,
+}
+
+impl CompensationKind {
+    /// The name used in the design file and the report.
+    pub fn name(self) -> &'static str {
+        match self {
+            CompensationKind::None => "none",
+            CompensationKind::Twin => "twin",
+            CompensationKind::Thermistor => "thermistor",
+            CompensationKind::Auto => "auto",
+        }
+    }
+}
+
+/// The unheated twin element's settings.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct TwinSpec {
+    /// The twin's resistance at the nominal ambient, ohm (`Auto`: sized so
+    /// its self-heating stays within half its limit).
+    pub resistance_ohm: Sizable,
+    /// Its resistance tolerance (fraction), independent of the sensing
+    /// element's: the mismatch between the two is an error source.
+    pub tolerance: f64,
+    /// Largest self-heating rise, as a share of the sensing element's
+    /// overheat at the trip airflow.
+    pub max_rise_share: f64,
+}
+
+/// The compensating thermistor's settings.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct ThermistorSpec {
+    /// Resistance at 25 °C, ohm.
+    pub r25_ohm: Sizable,
+    /// Beta constant, K.
+    pub beta_k: f64,
+    /// R25 tolerance (fraction).
+    pub r25_tolerance: f64,
+    /// Beta tolerance (fraction).
+    pub beta_tolerance: f64,
+    /// Dissipation constant in still air, W/K.
+    pub dissipation_w_per_k: f64,
+    /// The linearising resistor across it, ohm.
+    pub linearising_ohm: Sizable,
+}
+
+/// `[compensation]`.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct CompensationSpec {
+    /// Which variant.
+    pub kind: CompensationKind,
+    /// The twin's settings (used when the kind is `Twin` or `Auto`).
+    pub twin: TwinSpec,
+    /// The thermistor's settings (used when the kind is `Thermistor` or
+    /// `Auto`).
+    pub thermistor: ThermistorSpec,
+}
+
 /// The tolerance run's settings (`[spread]`).
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct SpreadSpec {
@@ -474,6 +568,8 @@ pub struct Design {
     pub ratings: RatingsSpec,
     /// The tolerance run's settings.
     pub spread: SpreadSpec,
+    /// Ambient compensation of the reference.
+    pub compensation: CompensationSpec,
     /// Defaults that were applied, in words, for the report.
     pub assumptions: Vec<String>,
 }

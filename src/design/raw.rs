@@ -47,6 +47,35 @@ pub struct RawDesign {
     pub ratings: Option<RawRatings>,
     /// `[spread]`.
     pub spread: Option<RawSpread>,
+    /// `[compensation]`.
+    pub compensation: Option<RawCompensation>,
+}
+
+/// `[compensation]`: ambient compensation of the reference.
+#[derive(Debug, Clone, Deserialize)]
+#[serde(deny_unknown_fields)]
+pub struct RawCompensation {
+    /// `none`, `twin`, `thermistor` or `auto`.
+    pub kind: Option<Word>,
+    /// The twin's resistance at the nominal ambient, or `auto`.
+    pub twin_resistance: Option<Value>,
+    /// The twin's resistance tolerance.
+    pub twin_tolerance: Option<Value>,
+    /// Largest self-heating rise of the twin, as a share of the sensing
+    /// element's overheat.
+    pub twin_max_rise: Option<Value>,
+    /// The thermistor's resistance at 25 °C, or `auto`.
+    pub thermistor_r25: Option<Value>,
+    /// The thermistor's beta constant.
+    pub thermistor_beta: Option<Value>,
+    /// Tolerance of the thermistor's R25.
+    pub thermistor_tolerance: Option<Value>,
+    /// Tolerance of the thermistor's beta.
+    pub thermistor_beta_tolerance: Option<Value>,
+    /// The thermistor's dissipation constant in still air.
+    pub thermistor_dissipation: Option<Value>,
+    /// The linearising resistor across the thermistor, or `auto`.
+    pub linearising: Option<Value>,
 }
 
 /// `[spread]`: the tolerance run's settings.
@@ -113,6 +142,9 @@ pub struct RawRegulator {
     pub output: Value,
     /// Output tolerance.
     pub tolerance: Option<Value>,
+    /// How far one unit's output moves in service (line, load and
+    /// temperature), after the bench trim has taken out its initial offset.
+    pub regulation: Option<Value>,
     /// Dropout voltage.
     pub dropout: Option<Value>,
     /// Quiescent current.

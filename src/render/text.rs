@@ -437,7 +437,8 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
 
     if !r.drift.is_empty() {
         heading(&mut out, "Trip-point drift");
-        let mut t = Table::new(&[
+        let compensated = r.compensation.kind != "none";
+        let mut head = vec![
             "condition",
             "ambient",
             "element rail",
@@ -445,8 +446,12 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
             "trips at",
             "releases at",
             "shift",
-            "note",
-        ]);
+        ];
+        if compensated {
+            head.push("uncompensated");
+        }
+        head.push("note");
+        let mut t = Table::new(&head);
         let mut corners = Vec::new();
         for d in &r.drift {
             let mut condition = d.condition.clone();
@@ -466,7 +471,7 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
                 ));
                 condition.push_str(&format!(" [{}]", corners.len()));
             }
-            t.push(vec![
+            let mut cells = vec![
                 condition,
                 format!("{:.1} °C", d.ambient_c),
                 format!("{:.3} V", d.element_rail_v),
@@ -477,12 +482,55 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
                 d.shift_m_per_s.map_or("—".into(), |u| {
                     format!("{}{}", crate::quantity::sign_of(u), air.text(u.abs()))
                 }),
-                air.prose(&d.note),
-            ]);
+            ];
+            if compensated {
+                cells.push(
+                    match (d.uncompensated_trip_airflow_m_per_s, &d.uncompensated_note) {
+                        (Some(u), _) => air.text(u),
+                        (None, Some(n)) => air.prose(n),
+                        (None, None) => "—".into(),
+                    },
+                );
+            }
+            cells.push(air.prose(&d.note));
+            t.push(cells);
         }
-        t.render(&mut out, "  ", "lrrrrrrl", width);
+        t.render(
+            &mut out,
+            "  ",
+            if compensated { "lrrrrrrrl" } else { "lrrrrrrl" },
+            width,
+        );
         for c in &corners {
             out.push_str(&wrap(c, "  ", "      ", width));
+        }
+        let c = &r.compensation;
+        let span = |x: Option<f64>| {
+            x.map_or("— (some condition never switches)".to_string(), |u| {
+                air.text(u)
+            })
+        };
+        out.push_str(&wrap(
+            &format!("Compensation: {}", air.prose(&c.why)),
+            "  ",
+            "    ",
+            width,
+        ));
+        if compensated {
+            let ratio = match (c.drift_span_m_per_s, c.uncompensated_drift_span_m_per_s) {
+                (Some(a), Some(b)) if a > 0.0 => format!(" ({:.0}× narrower)", b / a),
+                _ => String::new(),
+            };
+            out.push_str(&wrap(
+                &format!(
+                    "Drift span over ambient and supply (nominal parts): {} compensated, {} uncompensated{ratio}.",
+                    span(c.drift_span_m_per_s),
+                    span(c.uncompensated_drift_span_m_per_s)
+                ),
+                "  ",
+                "    ",
+                width,
+            ));
         }
     }
 

@@ -8,6 +8,7 @@
 //! - `trip-band`, `no-false-trip`, `releases-when-quiet`: [`trip`]
 //! - `trimmer-reaches-target`, `trimmer-mid-travel`, `trimmer-coverage`: [`trimmer`]
 //! - `element-limit`, `no-hot-latch`: [`element`]
+//! - `twin-self-heating`: [`compensation`]
 //! - `comparator-supply`, `comparator-common-mode`, `comparator-sink`,
 //!   `comparator-input-error`: [`comparator`]
 //! - `led-headroom`, `k1-coil-voltage`, `d1-ratings`, `q1-saturation`,
@@ -17,6 +18,7 @@
 //! - `element-steady-state`, `design-sizable`: [`super`] (`analysis/mod.rs`)
 
 pub mod comparator;
+pub mod compensation;
 pub mod element;
 pub mod ratings;
 pub mod stage;
@@ -40,6 +42,7 @@ pub const CHECK_IDS: &[&str] = &[
     "trimmer-coverage",
     "element-limit",
     "no-hot-latch",
+    "twin-self-heating",
     "element-steady-state",
     "comparator-supply",
     "comparator-common-mode",
