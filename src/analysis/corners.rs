@@ -25,6 +25,7 @@ use crate::design::model::{CompensationKind, Design, Rail, TripDirection};
 use crate::drive::Drive;
 use crate::element::{Element, Environment};
 use crate::solve::operating_point;
+use rayon::prelude::*;
 
 /// One build: each part's value as a factor of its nominal value.
 #[derive(Debug, Clone, PartialEq)]
@@ -80,6 +81,9 @@ pub struct Site {
     pub comparator_rail_v: f64,
     /// The input voltage, V.
     pub input_v: f64,
+    /// The regulated rail's voltage as a factor of its nominal output (1
+    /// without a regulator).
+    pub regulated_factor: f64,
     /// The bench: nominal ambient and supply, where each build is trimmed.
     pub bench: bool,
 }
@@ -280,6 +284,9 @@ pub fn sites(design: &Design) -> Vec<Site> {
                     reference_rail_v,
                     comparator_rail_v,
                     input_v: pick(Rail::Input, ein),
+                    regulated_factor: s.regulator.map_or(1.0, |r| {
+                        pick(Rail::Regulated, end_of(Rail::Regulated)) / r.output_v
+                    }),
                     bench: ai == 0 && ein.is_none() && ereg.is_none(),
                 });
             }
@@ -362,10 +369,11 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
         .find(|s| s.bench)
         .cloned()
         .unwrap_or(sites[0].clone());
-    let mut trims = Vec::with_capacity(builds.len());
-    let mut outcomes = Vec::new();
-    let mut hot_states = Vec::new();
-    for (bi, b) in builds.iter().enumerate() {
+    // Builds are independent: each is trimmed and taken to every site on
+    // its own, in parallel, and gathered back in build order.
+    let one = |(bi, b): (usize, &Build)| {
+        let mut outcomes = Vec::new();
+        let mut hot_states = Vec::new();
         let p = parts(core, b);
         let front_at = |site: &Site| FrontEnd {
             divider: p.divider,
@@ -402,7 +410,6 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
                 }
             }
         };
-        trims.push(trim);
         for (si, site) in sites.iter().enumerate() {
             let env = Environment {
                 ambient_k: site.ambient_k,
@@ -455,6 +462,16 @@ pub fn evaluate(design: &Design, core: &SizedCore) -> Grid {
                 }
             }
         }
+        (trim, outcomes, hot_states)
+    };
+    let per_build: Vec<_> = builds.par_iter().enumerate().map(one).collect();
+    let mut trims = Vec::with_capacity(builds.len());
+    let mut outcomes = Vec::new();
+    let mut hot_states = Vec::new();
+    for (t, o, h) in per_build {
+        trims.push(t);
+        outcomes.extend(o);
+        hot_states.extend(h);
     }
     Grid {
         builds,

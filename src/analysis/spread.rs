@@ -280,6 +280,9 @@ struct Context<'a> {
     input_mid_v: f64,
     ambient_ends: Vec<f64>,
     input_ends: Vec<f64>,
+    /// The regulated rail's in-service ends as factors of where the build's
+    /// regulator sits (1 ± regulation).
+    regulation_ends: Vec<f64>,
 }
 
 /// One draw in units of the tolerance, −1 … 1.
@@ -350,28 +353,24 @@ fn switching(
     cx: &Context,
     b: &Build,
     ambient_k: f64,
-    input_v: f64,
+    (input_v, regulated_factor): (f64, f64),
     x: f64,
     dv: f64,
     with_release: bool,
 ) -> (Switching, Option<Switching>) {
     let design = cx.design;
     let core = cx.core;
+    let regulated_v = b.regulated_v * regulated_factor;
     let env = Environment {
         ambient_k,
         ..core.env
     };
-    let el_v = element_rail(design).map_or(0.0, |r| rail_v(design, r, input_v, b.regulated_v));
+    let el_v = element_rail(design).map_or(0.0, |r| rail_v(design, r, input_v, regulated_v));
     let drive = drive_with(&design.drive, b.drive_value, el_v);
     let reference = Reference {
         front: FrontEnd {
             divider: b.divider,
-            reference_rail_v: rail_v(
-                design,
-                design.detector.reference_rail,
-                input_v,
-                b.regulated_v,
-            ),
+            reference_rail_v: rail_v(design, design.detector.reference_rail, input_v, regulated_v),
             ..core.front
         },
         comp: &b.comp,
@@ -462,7 +461,7 @@ fn trial(cx: &Context, index: u64, z: &[f64; N]) -> TrialRow {
         cx,
         &b,
         ambient_k,
-        input_v,
+        (input_v, 1.0),
         cx.core.trimmer_x,
         b.offset_v,
         false,
@@ -478,9 +477,11 @@ fn trial(cx: &Context, index: u64, z: &[f64; N]) -> TrialRow {
             b.offset_v
         };
         for &v in &cx.input_ends {
-            let (trip, _) = switching(cx, &b, t, v, x, dv, false);
-            false_trip |= trips_when_quiet(design, &trip);
-            out_of_band |= !in_band(design, &trip);
+            for &r in &cx.regulation_ends {
+                let (trip, _) = switching(cx, &b, t, (v, r), x, dv, false);
+                false_trip |= trips_when_quiet(design, &trip);
+                out_of_band |= !in_band(design, &trip);
+            }
         }
     }
     TrialRow {
@@ -793,7 +794,7 @@ fn worst_case(design: &Design, core: &SizedCore, cx: &Context) -> WorstCase {
                             cx,
                             &build,
                             site.ambient_k,
-                            site.input_v,
+                            (site.input_v, site.regulated_factor),
                             core.trimmer_x,
                             zo * cx.tol[5],
                             true,
@@ -848,6 +849,10 @@ pub fn spread(
         input_mid_v: 0.5 * (design.supply.input_min_v + design.supply.input_max_v),
         ambient_ends,
         input_ends,
+        regulation_ends: match design.supply.regulator {
+            Some(r) if r.regulation > 0.0 => vec![1.0 - r.regulation, 1.0, 1.0 + r.regulation],
+            _ => vec![1.0],
+        },
     };
     let chunks = opts.trials.div_ceil(CHUNK_TRIALS);
     let keep = rows.is_some();
