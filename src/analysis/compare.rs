@@ -168,6 +168,20 @@ fn row(design: &Design, c: &Candidate) -> CompareRow {
     let d = super::choice::resolve(&d).design;
     let core = match size_core(&d) {
         Ok(c) => c,
+        // The element's own figures still come from the plain divider; the
+        // checks below report that the design cannot be sized as asked.
+        Err(super::size::SizeError::Compensation(_)) => {
+            let plain = super::choice::with_kind(&d, crate::design::model::CompensationKind::None);
+            match size_core(&plain) {
+                Ok(c) => c,
+                Err(e) => {
+                    out.error = Some(e.to_string());
+                    out.checks_total = 1;
+                    out.failed_checks = vec!["design-sizable".into()];
+                    return out;
+                }
+            }
+        }
         Err(e) => {
             out.error = Some(e.to_string());
             out.checks_total = 1;

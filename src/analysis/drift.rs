@@ -123,10 +123,20 @@ pub fn drift(
     grid: &Grid,
     uncompensated: Option<&[Switching]>,
 ) -> Vec<DriftRow> {
+    // A site that differs from an earlier one only in a rail the trip
+    // point does not see (the comparator's own supply) repeats its row.
+    let mut seen: Vec<(f64, f64, f64)> = Vec::new();
     let mut rows: Vec<DriftRow> = grid
         .outcomes
         .iter()
         .filter(|o| o.build == 0 && o.offset_v == 0.0)
+        .filter(|o| {
+            let s = &grid.sites[o.site];
+            let key = (s.ambient_k, s.element_rail_v, s.reference_rail_v);
+            let new = !seen.contains(&key);
+            seen.push(key);
+            new
+        })
         .map(|o| {
             let mut r = row(design, core, grid, o, grid.sites[o.site].label.clone());
             r.uncompensated_trip_airflow_m_per_s = uncompensated

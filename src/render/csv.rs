@@ -165,6 +165,7 @@ pub fn render(report: &Report, table: Table) -> String {
                     "release_airflow_m_per_s",
                     "shift_m_per_s",
                     "tripped_in_still_air",
+                    "uncompensated_trip_airflow_m_per_s",
                     "note",
                 ]
                 .map(String::from),
@@ -183,6 +184,7 @@ pub fn render(report: &Report, table: Table) -> String {
                         opt(d.release_airflow_m_per_s),
                         opt(d.shift_m_per_s),
                         d.tripped_in_still_air.to_string(),
+                        opt(d.uncompensated_trip_airflow_m_per_s),
                         d.note.clone(),
                     ],
                 );
