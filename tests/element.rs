@@ -364,10 +364,24 @@ fn lamp_element_end_to_end() {
         "{}",
         still.element_temperature_c
     );
-    // The example's header says it fails: its trip point leaves the band
-    // over the ambient range (no compensation yet).
-    assert!(!report.passed());
-    assert!(report
+    // With its thermistor-compensated reference the example passes every
+    // check (its header says so); without it the trip point leaves the band.
+    assert!(
+        report.passed(),
+        "{:?}",
+        report
+            .checks
+            .iter()
+            .filter(|c| !c.passed)
+            .collect::<Vec<_>>()
+    );
+    assert_eq!(report.compensation.kind, "thermistor");
+    let plain = draftwire::analysis::size(&draftwire::analysis::choice::with_kind(
+        &d,
+        draftwire::design::model::CompensationKind::None,
+    ))
+    .unwrap();
+    assert!(plain
         .checks
         .iter()
         .any(|c| c.id == "trip-band" && !c.passed));

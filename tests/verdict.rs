@@ -218,7 +218,13 @@ fn an_unsizable_design_still_gives_a_json_report() {
 #[test]
 fn compare_exits_1_when_a_candidate_fails_a_size_check() {
     let out = draftwire()
-        .args(["compare", "--format", "json"])
+        .args([
+            "compare",
+            "--format",
+            "json",
+            "--set",
+            "compensation.kind=none",
+        ])
         .arg(example_path("workshop-door-draught.toml"))
         .arg("--candidates")
         .arg(example_path("candidates/element-candidates.toml"))
@@ -264,7 +270,7 @@ fn hold_off_uses_the_full_range_output_low_level() {
 
 /// Sink current includes the hysteresis feedback current and is held to
 /// 80 % of the limit: the workshop's direct LED, from its own bill, by
-/// hand: (5.25 − 0.7)/R_P + LED + (5.25 − 0.7)/(R_F + R_I).
+/// hand: (10 − 0.7)/R_P + LED + (10 − 0.7)/(R_F + R_I).
 #[test]
 fn sink_check_includes_feedback_current_and_margin() {
     let r = report("workshop.toml", &example("workshop-door-draught.toml"));
@@ -276,8 +282,17 @@ fn sink_check_includes_feedback_current_and_margin() {
             .value_ohm
             .unwrap()
     };
-    let led = (5.25 - 1.8 - 0.7) / ohm("RL1");
-    let hand = (5.25 - 0.7) / ohm("RP1") + led + (5.25 - 0.7) / (ohm("RF1") + ohm("RI1"));
+    // The comparator and its pull-up on the input rail (10 V at most), the
+    // LED on the regulated rail (5 V + 4 %), the feedback path across at
+    // most the highest rail.
+    let ri = r
+        .values
+        .iter()
+        .find(|v| v.designator == "RI1")
+        .and_then(|v| v.value_ohm)
+        .unwrap_or(0.0);
+    let led = (5.2 - 1.8 - 0.7) / ohm("RL1");
+    let hand = (10.0 - 0.7) / ohm("RP1") + led + (10.0 - 0.7) / (ohm("RF1") + ri);
     let c = r.checks.iter().find(|c| c.id == "comparator-sink").unwrap();
     assert!(
         (c.value.unwrap() - hand).abs() < 1e-9,
@@ -438,7 +453,7 @@ fn a_candidate_may_carry_its_own_drive_or_overheat() {
     // An overheat of its own needs the design's drive to be "auto".
     let fixed = example("workshop-door-draught.toml")
         .replace("series = \"auto\"", "series = \"56 ohm\"")
-        .replace("overheat_rise = \"50 K\"\n", "");
+        .replace("overheat_rise = \"100 K\"\n", "");
     let fixed = parse_design("w.toml", &fixed).unwrap();
     let err = parse_candidates("c.toml", &text, &fixed)
         .unwrap_err()
