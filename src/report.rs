@@ -314,6 +314,8 @@ pub struct CompensationSection {
     pub uncompensated_ambient_slope_m_per_s_per_k: Option<f64>,
     /// The compensating parts' designators in the bill.
     pub parts: Vec<String>,
+    /// How the compensation was sized, in words.
+    pub notes: Vec<String>,
 }
 
 /// Supply-current budget.

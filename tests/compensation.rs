@@ -57,40 +57,49 @@ fn air(t_c: f64) -> Environment {
 /// R1/R2 = R3/R4 (C. Wheatstone, Phil. Trans. R. Soc. 133 (1843) 303;
 /// any circuits text): with the sensing arm Rs over R_e and the reference
 /// arm R_top over (pad + twin), the two mid-points are at the same voltage
-/// exactly when R_e/Rs = (pad + R_tw)/R_top.
+/// exactly when R_e/Rs = (pad + R_tw)/R_top. The twin's resistance is worked
+/// here independently of the code: R = R0(1 + α(T − T0)) with its own
+/// self-heating T = T_a + I²R/A, I = V/(R_top + pad + R), by fixed-point
+/// iteration (King's A in still air; invented values).
 #[test]
 fn twin_bridge_balances_where_wheatstone_says() {
     let v = 5.0;
     let rs = 50.0;
-    // A twin of 6 kΩ (1000× the element) barely warms at these currents.
     let twin = Compensator::Twin(Twin {
         element: nickel(6000.0),
         leg: Leg::Bottom,
     });
-    let env = air(20.0);
+    let env = air(25.0);
     let d = Divider {
         top_ohm: 40e3,
         trimmer_ohm: 0.0,
         bottom_ohm: 2e3,
     };
-    let fe = twin.front_at(&front(d, v), &env, 0.5);
-    let r_tw = fe.divider.bottom_ohm - d.bottom_ohm;
+    // By hand: the twin's resistance with its own small self-heating.
+    let (r0, alpha, t0, a) = (6000.0, 6000e-6, 293.15, 1e-3);
+    let mut t = env.ambient_k;
+    for _ in 0..50 {
+        let r = r0 * (1.0 + alpha * (t - t0));
+        let i = v / (d.top_ohm + d.bottom_ohm + r);
+        t = env.ambient_k + i * i * r / a;
+    }
+    let r_tw = r0 * (1.0 + alpha * (t - t0));
     // Wheatstone: balanced when R_e = Rs·(pad + R_tw)/R_top.
     let r_e = rs * (d.bottom_ohm + r_tw) / d.top_ohm;
-    let sense = Drive::SeriesResistor {
+    let drive = Drive::SeriesResistor {
         rail_v: v,
         series_ohm: rs,
-    }
-    .sense_v(r_e);
+    };
+    // The code's reference node in still air.
+    let fe = twin.front_at(&front(d, v), &env, 0.0);
     let (v_ref, _) = fe.divider.thevenin(v, 0.0);
-    assert!((sense - v_ref).abs() < 1e-12 * v, "{sense} vs {v_ref}");
+    assert!(
+        (drive.sense_v(r_e) - v_ref).abs() < 1e-9 * v,
+        "{} vs {v_ref}",
+        drive.sense_v(r_e)
+    );
     // Off balance by 1 % on the element side, the bridge is off balance.
-    let off = Drive::SeriesResistor {
-        rail_v: v,
-        series_ohm: rs,
-    }
-    .sense_v(1.01 * r_e);
-    assert!((off - v_ref).abs() > 1e-4);
+    assert!((drive.sense_v(1.01 * r_e) - v_ref).abs() > 1e-4);
 }
 
 /// A twin bridge with a linear-TCR element trips at a constant overheat
@@ -243,9 +252,10 @@ fn thermistor_network_matches_value_and_slope_by_hand() {
 }
 
 /// A twin run at too high a current fails `twin-self-heating`: the divider
-/// scales with the twin, so its power goes as 1/R_tw; the sized twin runs at
-/// about half its limit (docs/model.md §8.11), and one a quarter its size at
-/// about twice the limit.
+/// scales with the twin, so its power goes as 1/R_tw, and a twin cut from
+/// the same wire loses heat in proportion to its length, so its rise goes as
+/// 1/R_tw² (docs/model.md §8.11). The sized twin aims at half its limit; one
+/// a quarter its size runs at about eight times the limit.
 #[test]
 fn a_twin_with_too_much_current_fails_its_self_heating_check() {
     let sized = report("w.toml", &example("workshop-door-draught.toml"));

@@ -112,14 +112,26 @@ pub fn resolve(design: &Design) -> Choice {
             best = Some((width, k, range_text));
         }
     }
-    let (k, text) = best.map_or((CompensationKind::None, String::new()), |(_, k, t)| (k, t));
-    Choice {
-        design: with_kind(design, k),
-        why: format!(
+    let why = match &best {
+        Some((w, k, text)) if w.is_finite() => format!(
             "auto: no variant holds the trip band at every condition ({}); {} gives the narrowest trip range ({text})",
             tried.join("; "),
-            describe(k)
+            describe(*k)
         ),
+        Some((_, k, _)) => format!(
+            "auto: no variant switches at every condition ({}); {} is kept",
+            tried.join("; "),
+            describe(*k)
+        ),
+        None => format!(
+            "auto: no variant could be sized ({}); the plain divider is kept",
+            tried.join("; ")
+        ),
+    };
+    let k = best.map_or(CompensationKind::None, |(_, k, _)| k);
+    Choice {
+        design: with_kind(design, k),
+        why,
     }
 }
 

@@ -5,8 +5,10 @@
 //!
 //! Vertices: all 2^k corners of the tolerance box of the parts that move
 //! the trip point — the element's R0, the drive (series resistor or current
-//! source), the divider's top, trimmer track and bottom — with k ≤ 5, so at
-//! most 32 builds besides the nominal one. A dimension with no tolerance
+//! source), the divider's top, trimmer track and bottom, the compensating
+//! part (a twin's resistance, or a thermistor's R25, beta and linearising
+//! resistor) and where the unit's regulator sits — with k ≤ 9, so at most
+//! 512 builds besides the nominal one, evaluated in parallel. A dimension with no tolerance
 //! (or a pinned trimmer, which analyses the nominal parts only) adds no
 //! vertices. The feedback and input resistors' tolerances move the
 //! hysteresis band, not the trimmed trip point, and are left out.

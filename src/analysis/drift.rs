@@ -4,7 +4,7 @@
 
 use super::assemble::to_c;
 use super::compensation::{Reference, Sensing};
-use super::corners::{tripped_sign, Grid, Outcome, Site, Switching};
+use super::corners::{tripped_sign, unit_rail_v, Grid, Outcome, Site, Switching};
 use super::size::{drive_with, element_rail, SizedCore};
 use crate::design::model::Design;
 use crate::element::Environment;
@@ -14,11 +14,18 @@ fn row(design: &Design, core: &SizedCore, grid: &Grid, o: &Outcome, label: Strin
     let site = &grid.sites[o.site];
     let u_nom = core.trip_airflow_m_per_s;
     let u = o.trip.airflow();
+    // The rails this unit sees: its own regulator's offset included.
+    let b = &grid.builds[o.build];
     DriftRow {
         condition: label,
         ambient_c: to_c(site.ambient_k),
-        element_rail_v: site.element_rail_v,
-        reference_rail_v: site.reference_rail_v,
+        element_rail_v: unit_rail_v(design, b, element_rail(design), site.element_rail_v),
+        reference_rail_v: unit_rail_v(
+            design,
+            b,
+            Some(design.detector.reference_rail),
+            site.reference_rail_v,
+        ),
         corner: grid.builds[o.build].label.clone(),
         offset_v: o.offset_v,
         trip_airflow_m_per_s: u,
@@ -185,7 +192,9 @@ fn ratiometric_rows(design: &Design, core: &SizedCore) -> Vec<DriftRow> {
         return Vec::new();
     };
     let ref_rail = design.detector.reference_rail;
-    let (lo, _) = s.rail_range_v(er);
+    // The rail's in-service low end (a regulator's own offset is trimmed
+    // out on the bench).
+    let (lo, _) = s.rail_in_service_v(er);
     if lo == s.rail_v(er) {
         return Vec::new();
     }

@@ -137,6 +137,8 @@ pub struct SizedCore {
     /// The ambient compensation part (nominal values); the divider's fixed
     /// parts are in `front.divider`.
     pub compensation: Compensator,
+    /// How the compensation was sized, in words.
+    pub compensation_notes: Vec<String>,
 }
 
 impl SizedCore {
@@ -574,10 +576,11 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         }
     }
     if front.feedback_ohm.is_some() {
+        let with_part = compensation.front_at(&front, &env, u_t).divider;
         notes.push(match arrangement {
             Arrangement::ReferenceOnNonInverting => format!(
                 "feedback goes into the reference node: its source resistance ({:.0} Ω at mid-travel) lets the output move it, while the sense node ({:.1} Ω) is too stiff to move",
-                divider.thevenin(ref_rail_v, 0.5).1, sense_src
+                with_part.thevenin(ref_rail_v, 0.5).1, sense_src
             ),
             Arrangement::SenseOnNonInverting => format!(
                 "the sense node ({:.1} Ω) is too stiff for feedback, so it reaches the non-inverting input through a {} series resistor, and the feedback acts on that side",
@@ -616,7 +619,6 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
     };
     let trip = reference.switching(&sensing, idle_state, 0.0, u_t, sigma);
     let release = reference.switching(&sensing, idle_state.other(), 0.0, u_t, sigma);
-    notes.extend(comp_notes);
 
     Ok(SizedCore {
         env,
@@ -642,6 +644,7 @@ pub fn size_core(design: &Design) -> Result<SizedCore, SizeError> {
         needed_ratio: (k_lo, k_hi),
         notes,
         compensation,
+        compensation_notes: comp_notes,
     })
 }
 

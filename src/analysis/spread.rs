@@ -71,7 +71,7 @@ pub const PARAMETERS: [&str; 13] = [
     "ambient",
     "input voltage",
     "regulator output",
-    "twin or thermistor R25",
+    "twin resistance or NTC R25",
     "thermistor beta",
     "linearising resistor",
 ];
@@ -242,7 +242,9 @@ pub struct SpreadReport {
 /// half-range, V for the input half-range) in [`PARAMETERS`] order.
 fn tolerances(design: &Design) -> [f64; N] {
     let t = design.detector.divider_tolerances;
-    let reg = design.supply.regulator.map_or(0.0, |r| r.tolerance);
+    // Where a unit's regulator sits (trimmed out on the bench); it moves by
+    // the regulation band around that in service (`regulation_ends`).
+    let reg = design.supply.regulator_offset_tolerance();
     let c = &design.compensation;
     let comp = match c.kind {
         CompensationKind::Twin => [c.twin.tolerance, 0.0, 0.0],

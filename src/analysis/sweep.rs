@@ -341,10 +341,17 @@ fn hold_overrides(report: &crate::report::Report) -> Vec<Override> {
         ("RF1", "detector.feedback"),
         ("RI1", "detector.input_resistor"),
         ("RP1", "comparator.pullup"),
+        ("RC1", "compensation.twin_resistance"),
+        ("RT1", "compensation.thermistor_r25"),
+        ("RR3", "compensation.linearising"),
     ] {
         if let Some(v) = ohm(d) {
             out.push(o(key, format!("{v} ohm")));
         }
+    }
+    // The compensation `auto` chose is held too.
+    if report.compensation.kind != "none" {
+        out.push(o("compensation.kind", report.compensation.kind.clone()));
     }
     if let Some(a) = report
         .values

@@ -372,6 +372,49 @@ impl CoolingLaw {
         }
     }
 
+    /// The law of `factor` times the length of the same wire (a twin cut
+    /// longer): King's A and B (and a data-sheet form's dissipation
+    /// constants) scale with the length, since a wire's convective and
+    /// radiative losses are per unit length (Collis & Williams 1959 give
+    /// Nu per unit length; King 1914 likewise); a geometry law takes the
+    /// longer cylinder, its supports unchanged. `None` for a factor that is
+    /// not finite and positive.
+    pub fn scaled_in_length(&self, factor: f64) -> Option<CoolingLaw> {
+        if !(factor.is_finite() && factor > 0.0) {
+            return None;
+        }
+        let scale = |k: &KingsLaw| KingsLaw {
+            a_w_per_k: k.a_w_per_k * factor,
+            b_w_per_k: k.b_w_per_k * factor,
+            ..*k
+        };
+        match self {
+            CoolingLaw::King(k) => Some(CoolingLaw::King(scale(k))),
+            CoolingLaw::Datasheet(d) => Some(CoolingLaw::Datasheet(DissipationLaw {
+                still_air_w_per_k: d.still_air_w_per_k * factor,
+                moving_w_per_k: d.moving_w_per_k * factor,
+                king: scale(&d.king),
+                ..*d
+            })),
+            CoolingLaw::Geometry(g) => {
+                let c = &g.cylinder;
+                CylinderInCrossFlow::new(
+                    c.diameter_m(),
+                    c.length_m() * factor,
+                    c.forced(),
+                    c.natural(),
+                )
+                .ok()
+                .map(|cylinder| {
+                    CoolingLaw::Geometry(GeometryCooling {
+                        cylinder,
+                        ..*g
+                    })
+                })
+            }
+        }
+    }
+
     /// Heat lost (W) at element temperature `t_k` and airflow `u` (m/s).
     #[inline]
     pub fn heat_loss_w(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {

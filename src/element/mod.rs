@@ -107,6 +107,18 @@ impl Element {
     pub fn max_temperature_k(&self) -> Option<f64> {
         self.max_temperature_k
     }
+    /// The same wire `factor` times as long: resistance, cooling and heat
+    /// capacity all scale with the length (a twin cut from the same reel).
+    /// Where the cooling law cannot be scaled, only the resistance is.
+    pub fn scaled_in_length(&self, factor: f64) -> Self {
+        let mut e = self.with_resistance_law(self.resistance.scaled(factor));
+        if let Some(c) = self.cooling.scaled_in_length(factor) {
+            e.cooling = c;
+            e.heat_capacity_j_per_k *= factor;
+        }
+        e
+    }
+
     /// A copy of this element with another cooling law (a model tolerance
     /// on the cooling).
     pub fn with_cooling_law(&self, cooling: CoolingLaw) -> Self {

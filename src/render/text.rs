@@ -516,9 +516,15 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
             "    ",
             width,
         ));
+        for n in &c.notes {
+            out.push_str(&wrap(&air.prose(n), "  ", "    ", width));
+        }
         if compensated {
             let ratio = match (c.drift_span_m_per_s, c.uncompensated_drift_span_m_per_s) {
-                (Some(a), Some(b)) if a > 0.0 => format!(" ({:.0}× narrower)", b / a),
+                (Some(a), Some(b)) if a > 0.0 && b >= 1.05 * a => {
+                    format!(" ({:.0}× narrower)", b / a)
+                }
+                (Some(_), Some(_)) => " (no narrower: here the compensation does not help)".into(),
                 _ => String::new(),
             };
             out.push_str(&wrap(

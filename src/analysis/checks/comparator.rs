@@ -119,7 +119,11 @@ fn sink(v: &StageView, core: &SizedCore) -> Check {
 fn input_error(v: &StageView, core: &SizedCore) -> Check {
     let cmp = &v.comparator;
     let src = core.drive.sense_source_ohm(core.at_trip.resistance_ohm);
-    let (r_plus, r_minus) = core.front.input_source_ohm(core.trimmer_x, src);
+    // The divider with any compensating part in it, at the bench.
+    let front = core
+        .compensation
+        .front_at(&core.front, &core.env, core.at_trip.airflow_m_per_s);
+    let (r_plus, r_minus) = front.input_source_ohm(core.trimmer_x, src);
     let (e_plus, e_minus) = (cmp.bias_error_v(r_plus), cmp.bias_error_v(r_minus));
     let net = cmp.input_error_v(r_plus, r_minus) - cmp.input_offset_v;
     let sens = core.sensitivity_v_per_m_per_s.abs().max(1e-300);
@@ -192,10 +196,14 @@ fn common_mode(design: &Design, core: &SizedCore, cmp: &ComparatorParams) -> Che
                         continue;
                     }
                 };
-                let front = FrontEnd {
-                    reference_rail_v: pick(design.detector.reference_rail),
-                    ..core.front
-                };
+                let front = core.compensation.front_at(
+                    &FrontEnd {
+                        reference_rail_v: pick(design.detector.reference_rail),
+                        ..core.front
+                    },
+                    &env,
+                    u,
+                );
                 let src = drive.sense_source_ohm(p.resistance_ohm);
                 for state in [OutputState::High, OutputState::Low] {
                     let (vp, vn) = front.input_voltages(p.sense_v, core.trimmer_x, state, src);

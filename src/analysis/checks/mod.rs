@@ -8,7 +8,7 @@
 //! - `trip-band`, `no-false-trip`, `releases-when-quiet`: [`trip`]
 //! - `trimmer-reaches-target`, `trimmer-mid-travel`, `trimmer-coverage`: [`trimmer`]
 //! - `element-limit`, `no-hot-latch`: [`element`]
-//! - `twin-self-heating`: [`compensation`]
+//! - `twin-self-heating`, `thermistor-self-heating`: [`compensation`]
 //! - `comparator-supply`, `comparator-common-mode`, `comparator-sink`,
 //!   `comparator-input-error`: [`comparator`]
 //! - `led-headroom`, `k1-coil-voltage`, `d1-ratings`, `q1-saturation`,
@@ -43,6 +43,7 @@ pub const CHECK_IDS: &[&str] = &[
     "element-limit",
     "no-hot-latch",
     "twin-self-heating",
+    "thermistor-self-heating",
     "element-steady-state",
     "comparator-supply",
     "comparator-common-mode",

@@ -116,10 +116,9 @@ pub struct PartState {
     pub power_w: f64,
 }
 
-/// Self-heating iterations of the thermistor: its rise is a few mK per
-/// mW·K⁻¹ of dissipation constant, so the fixed point converges in two or
-/// three steps; five leave it at machine precision.
-const THERMISTOR_HEATING_STEPS: usize = 5;
+/// A thermistor whose self-heating balance has no root within this rise
+/// over ambient runs away, K.
+const THERMISTOR_RUNAWAY_K: f64 = 1000.0;
 
 impl Compensator {
     /// The part at tolerance factors `[a, b, c]`: the twin's resistance or
@@ -207,21 +206,32 @@ impl Compensator {
                 )
             }
             Compensator::Thermistor(n) => {
-                let mut t = env.ambient_k;
-                let mut state = None;
-                for _ in 0..THERMISTOR_HEATING_STEPS {
+                // Its temperature: T = T_a + P(T)/δ (the dissipation
+                // constant's definition), P = V_pair²/R_T, solved by Brent's
+                // method on [T_a, T_a + 1000 K]; beyond that it runs away.
+                let at = |t: f64| {
                     let r = n.resistance_ohm(t);
                     let i = rail_v / (d.total_ohm() + r);
                     let v = i * r;
-                    let p = v * v / n.law.resistance_ohm(t);
-                    state = Some(PartState {
-                        temperature_k: t,
-                        resistance_ohm: r,
-                        power_w: p,
-                    });
-                    t = env.ambient_k + p / n.dissipation_w_per_k;
-                }
-                state
+                    (r, v * v / n.law.resistance_ohm(t))
+                };
+                let f = |t: f64| t - env.ambient_k - at(t).1 / n.dissipation_w_per_k;
+                let hi = env.ambient_k + THERMISTOR_RUNAWAY_K;
+                let t = if f(hi) > 0.0 {
+                    crate::roots::brent(f, env.ambient_k, hi).map_or(f64::INFINITY, |r| r.x)
+                } else {
+                    f64::INFINITY
+                };
+                let (r, p) = if t.is_finite() {
+                    at(t)
+                } else {
+                    at(env.ambient_k)
+                };
+                Some(PartState {
+                    temperature_k: t,
+                    resistance_ohm: r,
+                    power_w: p,
+                })
             }
         }
     }

@@ -12,7 +12,7 @@
 //! `Σ = R_c'·(1 − k)/s` (bottom) or `Σ = −k·R_c'/s` (top), with
 //! `s = (∂V_sense/∂T_a)/V_ref`. For a twin in a Wheatstone bridge with a
 //! linear-TCR element this is the balance `R_e/R_s = R_tw/R_top` held at a
-//! fixed overheat ratio (docs/model.md §13 derives it); the rule here is
+//! fixed overheat ratio (docs/model.md §8.11 derives it); the rule here is
 //! its general form, which also covers the fluid's property changes and any
 //! resistance law.
 //!
@@ -121,9 +121,7 @@ fn network(
 ) -> Compensator {
     match kind {
         CompensationKind::Twin => Compensator::Twin(Twin {
-            element: t
-                .element
-                .with_resistance_law(t.element.resistance_law().scaled(scale)),
+            element: t.element.scaled_in_length(scale),
             leg: Leg::Bottom,
         }),
         _ => {
@@ -393,12 +391,15 @@ pub fn size(kind: CompensationKind, t: &Target<'_>) -> Result<Sized, SizeError> 
     match kind {
         CompensationKind::Twin => {
             if design.compensation.twin.resistance_ohm == Sizable::Auto {
+                // A twin m times the element's length carries m times the
+                // divider's resistance (so 1/m its current) and loses m
+                // times the heat per kelvin: its rise goes as 1/m².
                 let (r_c, _) = value_and_slope(&comp, ta);
                 let i = t.rail_v / total0;
                 let g = t.element.cooling_law().heat_loss_w(ta + 1.0, 0.0, t.env);
                 let rise = i * i * r_c / g;
                 let limit = design.compensation.twin.max_rise_share * t.overheat_k;
-                let m = (rise / (TWIN_RISE_DESIGN_SHARE * limit)).max(1.0);
+                let m = (rise / (TWIN_RISE_DESIGN_SHARE * limit)).sqrt().max(1.0);
                 // The twin's resistance at the nominal ambient, rounded up
                 // to two significant figures (a length of wire is cut to
                 // it; draftwire's choice).
@@ -421,6 +422,16 @@ pub fn size(kind: CompensationKind, t: &Target<'_>) -> Result<Sized, SizeError> 
             let rp = match spec.linearising_ohm {
                 Sizable::Fixed(r) => r,
                 Sizable::Auto => {
+                    // The inflection-point value R_T(B − 2T)/(B + 2T) exists
+                    // only for B > 2T.
+                    let t_max = design.ambient.max_k;
+                    if spec.beta_k <= 2.0 * t_max {
+                        return Err(fail(format!(
+                            "the thermistor's beta ({:.0} K) must exceed twice the warmest ambient in kelvin ({:.0} K) for a linearising resistor to straighten its curve: give a larger thermistor_beta or a fixed linearising resistor",
+                            spec.beta_k,
+                            2.0 * t_max
+                        )));
+                    }
                     // Start from the inflection-point value, then take the
                     // value that holds the trip airflow best over the
                     // whole ambient range (the sense voltage's own
@@ -459,16 +470,30 @@ pub fn size(kind: CompensationKind, t: &Target<'_>) -> Result<Sized, SizeError> 
     } = fitted;
     let (top_exact, bottom_exact) = legs(leg, k, total, trimmer, x_t, network_ohm);
     let min_part = design.e_series.at_or_above(1.0);
+    let eng = |x: f64| crate::quantity::format_engineering(x, "Ω", 3);
+    if !(total.is_finite() && total > 0.0 && trimmer.is_finite()) {
+        return Err(fail(format!(
+            "no divider matches the sense voltage's ambient slope ({:.3} mV/K) with this part",
+            1e3 * s * t.rail_v
+        )));
+    }
     if top_exact < -0.5 * min_part || bottom_exact < -0.5 * min_part {
-        let what = match kind {
-            CompensationKind::Twin => "the twin",
-            _ => "the thermistor network",
+        let (what, advice) = match kind {
+            CompensationKind::Twin => (
+                "the twin",
+                "an unheated twin can only follow a sense voltage that moves, in relative terms, no faster than its own resistance; with a series resistor far above the element's resistance the element runs on a near-constant current and its temperature outruns the ambient. A series resistor nearer the element's own resistance (a lower element rail), less overheat, or a thermistor reference would do",
+            ),
+            _ => (
+                "the thermistor network",
+                "give a fixed linearising resistor larger than the one sized, or a thermistor of larger beta",
+            ),
         };
         return Err(fail(format!(
-            "{what} moves too little with ambient for this trip point: matching the sense voltage's slope ({:.3} mV/K) needs a divider of {:.0} ohm, and {what} alone ({:.0} ohm) is more than its {} leg may hold",
+            "{what} cannot follow the sense voltage here: matching its ambient slope ({:.3} mV/K) needs a divider of {} in all, with {} of trimmer, and {what} alone ({}) is more than its {} leg can hold; {advice}",
             1e3 * s * t.rail_v,
-            total,
-            network_ohm,
+            eng(total),
+            eng(trimmer),
+            eng(network_ohm),
             leg.name()
         )));
     }
@@ -510,9 +535,11 @@ pub fn size(kind: CompensationKind, t: &Target<'_>) -> Result<Sized, SizeError> 
     }
     let (_, divider) = best.ok_or(fail("no divider values".into()))?;
     if let Compensator::Twin(tw) = &comp {
+        let r = tw.element.resistance_law().resistance_ohm(ta);
         notes.push(format!(
-            "ambient twin: {} at the nominal ambient, in the divider's bottom leg below RR2; it sits beside the sensing element in the same air and mounting, unheated",
-            crate::quantity::format_engineering(tw.element.resistance_law().resistance_ohm(ta), "Ω", 3)
+            "the twin is {} at the nominal ambient: the same wire about {:.1} times the sensing element's length, mounted beside it in the same air, carrying only the divider's current",
+            crate::quantity::format_engineering(r, "Ω", 3),
+            r / t.element.resistance_law().resistance_ohm(ta)
         ));
     }
     Ok(Sized {
