@@ -41,3 +41,4 @@ pub mod report;
 pub mod roots;
 pub mod solve;
 pub mod starter;
+pub mod transient;

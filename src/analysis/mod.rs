@@ -14,6 +14,7 @@ pub mod spread;
 pub mod stage;
 pub mod sweep;
 pub mod switching;
+pub mod transient;
 
 use crate::design::Design;
 use crate::report::{Check, Report};
@@ -149,6 +150,7 @@ fn compensation_section(
             .filter(|v| ["RC1", "RT1", "RR3"].contains(&v.designator.as_str()))
             .map(|v| v.designator.clone())
             .collect(),
+        notes: core.compensation_notes.clone(),
     };
     let uncompensated = if core.compensation.is_some() {
         plain

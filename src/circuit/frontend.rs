@@ -68,7 +68,9 @@ pub struct FrontEnd {
 }
 
 impl FrontEnd {
-    fn output_source(&self, state: OutputState, rf: f64) -> (f64, f64) {
+    /// The output as a Thevenin source seen through the feedback resistor
+    /// `rf` in `state`: (V, ohm).
+    pub fn output_source(&self, state: OutputState, rf: f64) -> (f64, f64) {
         match state {
             OutputState::High => (self.output_high.0, self.output_high.1 + rf),
             OutputState::Low => (self.output_low_v, rf),

@@ -5,6 +5,7 @@
 mod compare;
 mod spread;
 mod sweep;
+mod transient;
 
 use clap::{Parser, Subcommand, ValueEnum};
 use draftwire::render;
@@ -103,6 +104,35 @@ enum Command {
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
     },
+    /// Run the sized design in time: power-on from a cold element, a step of airflow, a puff, or a recorded airflow history.
+    Transient {
+        /// The design file (TOML).
+        design: PathBuf,
+        /// power-on, step or puff.
+        #[arg(long)]
+        scenario: Option<String>,
+        /// Step: the airflow to step to, e.g. "0.5 m/s".
+        #[arg(long)]
+        to: Option<String>,
+        /// Puff: its peak airflow, e.g. "1 m/s".
+        #[arg(long)]
+        peak: Option<String>,
+        /// Puff: how long it lasts, e.g. "0.3 s".
+        #[arg(long)]
+        duration: Option<String>,
+        /// Puff: rectangular or half-sine.
+        #[arg(long, value_enum, default_value_t = PuffShape::Rectangular)]
+        shape: PuffShape,
+        /// An airflow history: CSV with columns time_s,airflow_m_per_s.
+        #[arg(long = "airflow-file")]
+        airflow_file: Option<PathBuf>,
+        /// Also write the first run's time series to this CSV file.
+        #[arg(long)]
+        samples: Option<PathBuf>,
+        /// Output format (csv: the events).
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
+    },
     /// Write a commented starter design (example values) that `size` accepts.
     New {
         /// The element it starts from.
@@ -133,6 +163,14 @@ enum Command {
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
     },
+}
+
+#[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
+enum PuffShape {
+    /// Constant at the peak for the duration.
+    Rectangular,
+    /// Half a sine wave from the base to the peak and back.
+    HalfSine,
 }
 
 #[derive(Debug, Clone, Copy, PartialEq, Eq, ValueEnum)]
@@ -381,6 +419,29 @@ pub fn run() -> ExitCode {
                 }
             }
         }
+        Command::Transient {
+            design,
+            scenario,
+            to,
+            peak,
+            duration,
+            shape,
+            airflow_file,
+            samples,
+            format,
+        } => transient::run(
+            &design,
+            transient::Ask {
+                scenario: scenario.as_deref(),
+                to: to.as_deref(),
+                peak: peak.as_deref(),
+                duration: duration.as_deref(),
+                half_sine: shape == PuffShape::HalfSine,
+                airflow_file: airflow_file.as_ref(),
+                samples: samples.as_ref(),
+            },
+            format,
+        ),
         Command::Spread {
             design,
             trials,

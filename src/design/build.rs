@@ -395,6 +395,38 @@ fn build_detector(
     let trip_band_m_per_s = trip_band(rd, t, trip_airflow_m_per_s)?;
     check_quiet_outside_band(rd, t, trip_on, trip_band_m_per_s, normal_airflow_m_per_s)?;
     let divider_tolerances = divider_tolerances(rd, t, e_series)?;
+    let power_on_grace_s = match &t.power_on_grace {
+        None => 0.0,
+        Some(v) => {
+            let x = rd.non_negative(v, "detector.power_on_grace", Dimension::Time)?;
+            if x > 3600.0 {
+                return Err(rd.err(
+                    Some(v.span()),
+                    "detector.power_on_grace",
+                    format!("expected a time of 0 s to 1 h, found {x} s"),
+                ));
+            }
+            x
+        }
+    };
+    let power_on_hold_off = match &t.power_on_hold_off {
+        None => HoldOffSpec::Auto,
+        Some(v) => match v.get_ref() {
+            raw::Scalar::Text(w) if w.trim().eq_ignore_ascii_case("none") => HoldOffSpec::None,
+            _ => match rd.sizable(v, "detector.power_on_hold_off", Dimension::Capacitance)? {
+                Sizable::Auto => HoldOffSpec::Auto,
+                Sizable::Fixed(c) if (1e-9..=1e-2).contains(&c) => HoldOffSpec::Fixed(c),
+                Sizable::Fixed(c) => return Err(rd.err(
+                    Some(v.span()),
+                    "detector.power_on_hold_off",
+                    format!(
+                        "expected \"auto\", \"none\" or a capacitance of 1 nF to 10 mF, found {}",
+                        crate::quantity::format_engineering(c, "F", 4)
+                    ),
+                )),
+            },
+        },
+    };
     Ok(Detector {
         trip_airflow_m_per_s,
         normal_airflow_m_per_s,
@@ -408,6 +440,8 @@ fn build_detector(
         bottom_ohm,
         trimmer_position,
         divider_current_a,
+        power_on_grace_s,
+        power_on_hold_off,
         hysteresis,
         feedback_ohm,
         input_resistor_ohm,

@@ -221,6 +221,10 @@ pub struct Detector {
     pub trimmer_position: Option<f64>,
     /// Wanted divider current when sizing, A.
     pub divider_current_a: Option<f64>,
+    /// How long a false alarm after power-on is accepted, s.
+    pub power_on_grace_s: f64,
+    /// The power-on hold-off capacitor.
+    pub power_on_hold_off: HoldOffSpec,
     /// Wanted hysteresis.
     pub hysteresis: HysteresisSpec,
     /// Feedback resistor.
@@ -437,6 +441,18 @@ impl SpreadDistribution {
             SpreadDistribution::Normal => "normal",
         }
     }
+}
+
+/// The power-on hold-off capacitor on the reference node
+/// (`[detector] power_on_hold_off`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum HoldOffSpec {
+    /// Sized when a power-on false alarm exceeds the grace.
+    Auto,
+    /// None fitted, whatever happens at power-on.
+    None,
+    /// This capacitance, F (its end, rail or ground, is chosen).
+    Fixed(f64),
 }
 
 /// Which ambient compensation the reference gets (`[compensation] kind`).

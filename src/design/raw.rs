@@ -336,6 +336,10 @@ pub struct RawDetector {
     pub feedback: Option<Value>,
     /// Series input resistor or `auto`.
     pub input_resistor: Option<Value>,
+    /// How long a false alarm after power-on is accepted.
+    pub power_on_grace: Option<Value>,
+    /// The power-on hold-off capacitor: `auto`, `none` or a capacitance.
+    pub power_on_hold_off: Option<Value>,
 }
 
 /// `[comparator]`.

@@ -8,3 +8,4 @@ pub mod spread;
 pub mod svg;
 pub mod sweep;
 pub mod text;
+pub mod transient;

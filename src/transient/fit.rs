@@ -1,0 +1,1 @@
+//! Fitting the element's cooling to bench readings (filled below).
