@@ -33,6 +33,7 @@ pub mod design;
 pub mod drive;
 pub mod element;
 pub mod eseries;
+pub mod fit;
 pub mod physics;
 pub mod precision;
 pub mod quantity;

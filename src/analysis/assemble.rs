@@ -331,6 +331,31 @@ pub fn compensation_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     }
 }
 
+/// The power-on hold-off capacitor's row.
+pub fn hold_off_row(design: &Design, core: &SizedCore, h: &crate::transient::HoldOff) -> ValueRow {
+    let rail = design.supply.rail_range_v(design.detector.reference_rail).1;
+    ValueRow {
+        designator: "CH1".into(),
+        part: "capacitor".into(),
+        value_f: Some(h.capacitance_f),
+        e_series: match design.detector.power_on_hold_off {
+            crate::design::model::HoldOffSpec::Fixed(_) => "given".into(),
+            _ => "E6".into(),
+        },
+        text: format_engineering(h.capacitance_f, "F", 2),
+        rating: format!(
+            "≥ {} (≥ 1.5× {rail:.2} V); low leakage against the divider's current",
+            format_engineering(1.5 * rail, "V", 3)
+        ),
+        reason: format!(
+            "power-on hold-off {}; τ ≈ {:.2} s with the divider",
+            super::transient::placement(h),
+            super::transient::hold_off_tau(core, h)
+        ),
+        ..ValueRow::default()
+    }
+}
+
 /// The cautions that apply, in words; each defers to local codes.
 pub fn cautions(design: &Design, core: &SizedCore) -> Vec<String> {
     let mut v = Vec::new();

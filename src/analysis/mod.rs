@@ -31,6 +31,11 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
     checks.extend(checks::trimmer::checks(design, &grid));
     checks.extend(checks::element::checks(design, &core, &grid));
     checks.extend(checks::compensation::checks(design, &core, &grid));
+    let hold = transient::choose_hold_off(design, &core);
+    checks.push(checks::power_on::check(design, &core, &hold));
+    if let transient::HoldOffChoice::Fitted(h) = hold {
+        values.push(assemble::hold_off_row(design, &core, &h));
+    }
     checks.extend(steady_state_check(&core));
     let (compensation, uncompensated) = compensation_section(&choice, &core, &grid, &values);
     let drift = drift::drift(design, &core, &grid, uncompensated.as_deref());

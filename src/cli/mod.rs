@@ -3,6 +3,7 @@
 //! failed, 2 bad input or usage).
 
 mod compare;
+mod fit;
 mod spread;
 mod sweep;
 mod transient;
@@ -130,6 +131,17 @@ enum Command {
         #[arg(long)]
         samples: Option<PathBuf>,
         /// Output format (csv: the events).
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
+    },
+    /// Fit the element's cooling to bench readings: King's law from airflow readings, or R0 and the still-air conductance from readings at two or more currents.
+    Fit {
+        /// The readings (CSV with a header; units in the column names).
+        readings: PathBuf,
+        /// The design whose element's resistance law turns resistance into temperature.
+        #[arg(long)]
+        design: PathBuf,
+        /// Output format (csv: the residuals).
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
     },
@@ -442,6 +454,11 @@ pub fn run() -> ExitCode {
             },
             format,
         ),
+        Command::Fit {
+            readings,
+            design,
+            format,
+        } => fit::run(&readings, &design, format),
         Command::Spread {
             design,
             trials,

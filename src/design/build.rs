@@ -416,14 +416,16 @@ fn build_detector(
             _ => match rd.sizable(v, "detector.power_on_hold_off", Dimension::Capacitance)? {
                 Sizable::Auto => HoldOffSpec::Auto,
                 Sizable::Fixed(c) if (1e-9..=1e-2).contains(&c) => HoldOffSpec::Fixed(c),
-                Sizable::Fixed(c) => return Err(rd.err(
-                    Some(v.span()),
-                    "detector.power_on_hold_off",
-                    format!(
+                Sizable::Fixed(c) => {
+                    return Err(rd.err(
+                        Some(v.span()),
+                        "detector.power_on_hold_off",
+                        format!(
                         "expected \"auto\", \"none\" or a capacitance of 1 nF to 10 mF, found {}",
                         crate::quantity::format_engineering(c, "F", 4)
                     ),
-                )),
+                    ))
+                }
             },
         },
     };

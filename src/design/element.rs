@@ -401,6 +401,33 @@ fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Ele
         })?
         .with_notes(notes)
         .with_plausibility_warnings(plausibility);
+    let element = match e.cooling.as_ref().and_then(|c| c.calibrated_range.as_ref()) {
+        None => element,
+        Some(range) => {
+            let field = format!("{p}.cooling.calibrated_range");
+            let items = range.get_ref();
+            if items.len() != 2 {
+                return Err(rd.err(
+                    Some(range.span()),
+                    &field,
+                    format!(
+                        "expected two airflows, lowest and highest read, such as [\"0 m/s\", \"3 m/s\"]; found {} item(s)",
+                        items.len()
+                    ),
+                ));
+            }
+            let lo = rd.non_negative(&items[0], &field, Dimension::Velocity)?;
+            let hi = rd.positive(&items[1], &field, Dimension::Velocity)?;
+            if !(lo < hi && hi <= 100.0) {
+                return Err(rd.err(
+                    Some(range.span()),
+                    &field,
+                    format!("expected lowest < highest ≤ 100 m/s, found {lo} – {hi} m/s"),
+                ));
+            }
+            element.with_calibrated_range(lo, hi)
+        }
+    };
     Ok((element, tolerance))
 }
 
@@ -440,7 +467,7 @@ fn resistance_keys(r: &raw::RawResistance) -> [Key; 10] {
 }
 
 /// Every optional key of `[element.cooling]`.
-fn cooling_keys(c: &raw::RawCooling) -> [Key; 15] {
+fn cooling_keys(c: &raw::RawCooling) -> [Key; 16] {
     [
         ("a", at(&c.a)),
         ("b", at(&c.b)),
@@ -457,6 +484,10 @@ fn cooling_keys(c: &raw::RawCooling) -> [Key; 15] {
         ("natural", at(&c.natural)),
         ("emissivity", at(&c.emissivity)),
         ("supports", at(&c.supports)),
+        (
+            "calibrated_range",
+            c.calibrated_range.as_ref().map(|v| v.span()),
+        ),
     ]
 }
 
@@ -737,7 +768,7 @@ fn cooling(
     let g = Dimension::ThermalConductance;
     match law {
         "king" => {
-            only(rd, &keys, &["a", "b", "n"], law, &pre)?;
+            only(rd, &keys, &["a", "b", "n", "calibrated_range"], law, &pre)?;
             let a = rd.non_negative(
                 req(
                     rd,

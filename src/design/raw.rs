@@ -253,6 +253,8 @@ pub struct RawCooling {
     pub emissivity: Option<Value>,
     /// Conductance to the supports.
     pub supports: Option<Value>,
+    /// The airflow range King's constants were calibrated over.
+    pub calibrated_range: Option<Spanned<Vec<Value>>>,
 }
 
 /// `[element.lamp]`.

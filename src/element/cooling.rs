@@ -405,12 +405,7 @@ impl CoolingLaw {
                     c.natural(),
                 )
                 .ok()
-                .map(|cylinder| {
-                    CoolingLaw::Geometry(GeometryCooling {
-                        cylinder,
-                        ..*g
-                    })
-                })
+                .map(|cylinder| CoolingLaw::Geometry(GeometryCooling { cylinder, ..*g }))
             }
         }
     }

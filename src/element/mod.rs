@@ -58,6 +58,7 @@ pub struct Element {
     max_temperature_k: Option<f64>,
     notes: Vec<String>,
     plausibility: Vec<String>,
+    calibrated_range: Option<(f64, f64)>,
 }
 
 impl Element {
@@ -89,6 +90,7 @@ impl Element {
             max_temperature_k,
             notes: Vec::new(),
             plausibility: Vec::new(),
+            calibrated_range: None,
         })
     }
     /// The resistance law.
@@ -161,6 +163,25 @@ impl Element {
     /// element temperature `t_k` and airflow `airflow_m_per_s`
     /// ([`CoolingLaw::range_warnings`]); empty when all is in range.
     pub fn range_warnings(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> Vec<String> {
-        self.cooling.range_warnings(t_k, airflow_m_per_s, env)
+        let mut w = self.cooling.range_warnings(t_k, airflow_m_per_s, env);
+        if let Some((lo, hi)) = self.calibrated_range {
+            if airflow_m_per_s < lo * (1.0 - 1e-9) || airflow_m_per_s > hi * (1.0 + 1e-9) {
+                w.push(format!(
+                    "{airflow_m_per_s:.3} m/s lies outside the airflow range the cooling law was calibrated over ({lo} – {hi} m/s): the law is extrapolated there"
+                ));
+            }
+        }
+        w
+    }
+
+    /// The airflow range the cooling law was calibrated over, m/s.
+    pub fn calibrated_range(&self) -> Option<(f64, f64)> {
+        self.calibrated_range
+    }
+
+    /// This element with the airflow range its cooling was calibrated over.
+    pub fn with_calibrated_range(mut self, lo: f64, hi: f64) -> Self {
+        self.calibrated_range = Some((lo, hi));
+        self
     }
 }

@@ -23,7 +23,6 @@
 //! are as exact as the solution.
 
 pub mod dopri;
-pub mod fit;
 
 use crate::analysis::compensation::Compensator;
 use crate::circuit::frontend::{millman, Arrangement, FrontEnd, OutputState};

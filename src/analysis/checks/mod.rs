@@ -9,6 +9,7 @@
 //! - `trimmer-reaches-target`, `trimmer-mid-travel`, `trimmer-coverage`: [`trimmer`]
 //! - `element-limit`, `no-hot-latch`: [`element`]
 //! - `twin-self-heating`, `thermistor-self-heating`: [`compensation`]
+//! - `power-on-false-alarm`: [`power_on`]
 //! - `comparator-supply`, `comparator-common-mode`, `comparator-sink`,
 //!   `comparator-input-error`: [`comparator`]
 //! - `led-headroom`, `k1-coil-voltage`, `d1-ratings`, `q1-saturation`,
@@ -20,6 +21,7 @@
 pub mod comparator;
 pub mod compensation;
 pub mod element;
+pub mod power_on;
 pub mod ratings;
 pub mod stage;
 pub mod supply;
@@ -44,6 +46,7 @@ pub const CHECK_IDS: &[&str] = &[
     "no-hot-latch",
     "twin-self-heating",
     "thermistor-self-heating",
+    "power-on-false-alarm",
     "element-steady-state",
     "comparator-supply",
     "comparator-common-mode",

@@ -1,1 +1,0 @@
-//! Fitting the element's cooling to bench readings (filled below).
