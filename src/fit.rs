@@ -361,6 +361,24 @@ pub fn fit_king(points: &[(f64, f64)]) -> Result<KingFit, FitError> {
                 .collect()
         },
     )?;
+    if !(p[2] > 0.0 && p[2] <= 1.0) {
+        return Err(FitError::Undetermined {
+            what: "King's exponent n",
+            why: format!(
+                "the readings give n = {:.3}, outside King's law's 0 < n ≤ 1: check the airflows and the element's resistance law, or read over a wider airflow range",
+                p[2]
+            ),
+        });
+    }
+    if p[0] < 0.0 {
+        return Err(FitError::Undetermined {
+            what: "King's A",
+            why: format!(
+                "the readings give a negative still-air conductance ({:.3e} W/K): add readings at low airflow (still air if possible)",
+                p[0]
+            ),
+        });
+    }
     let dof = m - 3;
     let s2 = ssr / dof as f64;
     let inv = invert(jtj).ok_or(FitError::Undetermined {
@@ -551,12 +569,17 @@ pub fn fit_still_air(
     })
 }
 
-/// The temperature a law's R0 refers to, K (its t0, or 20 °C for laws
-/// without one).
+/// The temperature a law's R0 (the `r0` of the design file) refers to, K:
+/// a linear law's t0, 0 °C for platinum (IEC 60751's R0), a tungsten
+/// wire's or a beta thermistor's own reference temperature, and 25 °C for
+/// the others (the thermistor convention).
 pub fn law_reference_k(law: &ResistanceLaw) -> f64 {
     match law {
         ResistanceLaw::Linear(l) => l.t0_k(),
-        _ => 293.15,
+        ResistanceLaw::Platinum(_) => 273.15,
+        ResistanceLaw::Tungsten(w) => w.reference_temperature_k(),
+        ResistanceLaw::Beta(b) => b.t0_k(),
+        _ => 298.15,
     }
 }
 
@@ -755,13 +778,33 @@ fn q(x: f64, unit: &str) -> String {
     crate::quantity::format_engineering(x, unit, 4)
 }
 
+/// The airflow term's 95 % relative interval at airflow `u`:
+/// t·σ(B·uⁿ)/(B·uⁿ), σ² = gᵀ·cov·g with g = (uⁿ, B·uⁿ·ln u) over (B, n)
+/// (first-order propagation of the fit's covariance, Draper & Smith ch. 24).
+pub fn airflow_term_interval(f: &KingFit, u: f64) -> f64 {
+    if u <= 0.0 {
+        return 0.0;
+    }
+    let un = u.powf(f.n);
+    let g = [un, f.b_w_per_k * un * u.ln()];
+    let c = &f.covariance;
+    let var = g[0] * g[0] * c[1][1] + 2.0 * g[0] * g[1] * c[1][2] + g[1] * g[1] * c[2][2];
+    f.t95 * var.max(0.0).sqrt() / (f.b_w_per_k * un).abs().max(1e-300)
+}
+
+/// Largest `[spread] cooling` tolerance the design file takes.
+pub const SPREAD_COOLING_MAX: f64 = 0.5;
+
 /// The paste-ready `[element.cooling]` section of a King fit, recording the
 /// calibrated range, and the `[spread]` cooling tolerance that carries the
-/// airflow term's 95 % uncertainty into `draftwire spread`.
-pub fn king_section(f: &KingFit) -> String {
-    let rel_b = f.t95 * f.b_stderr_w_per_k / f.b_w_per_k.abs().max(1e-300);
+/// airflow term's 95 % uncertainty at the trip airflow `u_trip` into
+/// `draftwire spread`.
+pub fn king_section(f: &KingFit, u_trip: f64) -> String {
+    let rel = airflow_term_interval(f, u_trip);
+    let capped = rel > SPREAD_COOLING_MAX;
+    let rel_b = rel.min(SPREAD_COOLING_MAX);
     format!(
-        "[element.cooling]\nlaw = \"king\"\na = \"{}\"    # ± {} (one standard error)\nb = \"{}\"    # ± {}\nn = {:.4}    # ± {:.4}\ncalibrated_range = [\"{} m/s\", \"{} m/s\"]\n\n[spread]\ncooling = \"{:.1} %\"    # the airflow term's 95 % interval from the fit (t = {:.3}, {} degrees of freedom)\n",
+        "[element.cooling]\nlaw = \"king\"\na = \"{}\"    # ± {} (one standard error)\nb = \"{}\"    # ± {}\nn = {:.4}    # ± {:.4}\ncalibrated_range = [\"{} m/s\", \"{} m/s\"]\n\n[spread]\ncooling = \"{:.1} %\"    # the airflow term's 95 % interval at the trip airflow ({u_trip} m/s) from the fit (t = {:.3}, {} degrees of freedom){}\n",
         q(f.a_w_per_k, "W/K"),
         q(f.a_stderr_w_per_k, "W/K"),
         q(f.b_w_per_k, "W/K"),
@@ -770,16 +813,25 @@ pub fn king_section(f: &KingFit) -> String {
         f.n_stderr,
         f.airflow_range_m_per_s[0],
         f.airflow_range_m_per_s[1],
-        (100.0 * rel_b).min(50.0),
+        100.0 * rel_b,
         f.t95,
-        f.degrees_of_freedom
+        f.degrees_of_freedom,
+        if capped {
+            format!(
+                "; the interval is {:.0} %, capped at the file's 50 % limit: read more points near the trip airflow",
+                100.0 * rel
+            )
+        } else {
+            String::new()
+        }
     )
 }
 
 /// The paste-ready lines of a still-air fit.
-pub fn still_air_section(f: &StillAirFit) -> String {
+pub fn still_air_section(f: &StillAirFit, law: &ResistanceLaw) -> String {
+    let t0 = law_reference_k(law) - 273.15;
     format!(
-        "# [element.resistance]: the law's r0 from the fit\nr0 = \"{}\"    # ± {} (one standard error)\n# [element.cooling]: King's A (or a data sheet's dissipation constant) from the fit\na = \"{}\"    # ± {}\n",
+        "# [element.resistance]: the law's r0 (its resistance at {t0} °C) from the fit\nr0 = \"{}\"    # ± {} (one standard error)\nt0 = \"{t0} degC\"    # for a law that takes t0\n# [element.cooling]: King's A (or a data sheet's dissipation constant) from the fit\na = \"{}\"    # ± {}\n",
         q(f.r0_ohm, "ohm"),
         q(f.r0_stderr_ohm, "ohm"),
         q(f.a_w_per_k, "W/K"),

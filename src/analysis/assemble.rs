@@ -348,9 +348,9 @@ pub fn hold_off_row(design: &Design, core: &SizedCore, h: &crate::transient::Hol
             format_engineering(1.5 * rail, "V", 3)
         ),
         reason: format!(
-            "power-on hold-off {}; τ ≈ {:.2} s with the divider",
+            "power-on hold-off {}; τ ≈ {} with the divider, so the detector cannot trip for about 5τ after power-on; a low-leakage part (an electrolytic's leakage, up to about 0.01·C·V by IEC 60384-4, flows into the divider)",
             super::transient::placement(h),
-            super::transient::hold_off_tau(core, h)
+            format_engineering(super::transient::hold_off_tau(core, h), "s", 3)
         ),
         ..ValueRow::default()
     }

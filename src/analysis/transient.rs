@@ -102,12 +102,11 @@ pub fn power_on(
         .map(|y| c.element.resistance_law().resistance_ohm(y[0]))
         .map_or(core.still_air.sense_v, |r| c.drive.sense_v(r));
     let src = core.sense_source_ohm();
-    let band = (core
-        .front
-        .switching_sense_v(core.trimmer_x, core.idle_state, src)
-        - core
-            .front
-            .switching_sense_v(core.trimmer_x, core.idle_state.other(), src))
+    let fe =
+        core.compensation
+            .front_at(&core.front, &core.env, design.detector.trip_airflow_m_per_s);
+    let band = (fe.switching_sense_v(core.trimmer_x, core.idle_state, src)
+        - fe.switching_sense_v(core.trimmer_x, core.idle_state.other(), src))
     .abs();
     // Without hysteresis, 1 % of the settled value (draftwire's choice).
     let window = if band > 0.0 {
@@ -214,8 +213,13 @@ pub fn choose_hold_off(design: &Design, core: &SizedCore) -> HoldOffChoice {
 /// The event table's times for a step from the quiet airflow to `to` and
 /// back: (time to trip from the step, time to release from the fall back,
 /// the run).
-pub fn step(design: &Design, core: &SizedCore, to: f64) -> (Option<f64>, Option<f64>, Run, f64) {
-    let c = circuit(design, core, design.ambient.nominal_k, None);
+pub fn step(
+    design: &Design,
+    core: &SizedCore,
+    to: f64,
+    hold_off: Option<HoldOff>,
+) -> (Option<f64>, Option<f64>, Run, f64) {
+    let c = circuit(design, core, design.ambient.nominal_k, hold_off);
     let u0 = quiet_airflow(design);
     let (t_end, h_max) = horizon(core);
     // Held long enough to settle (half the horizon), then back.
@@ -250,11 +254,10 @@ pub fn step(design: &Design, core: &SizedCore, to: f64) -> (Option<f64>, Option<
 pub fn puff(
     design: &Design,
     core: &SizedCore,
-    peak: f64,
-    duration_s: f64,
-    half_sine: bool,
+    (peak, duration_s, half_sine): (f64, f64, bool),
+    hold_off: Option<HoldOff>,
 ) -> (Option<f64>, Run) {
-    let c = circuit(design, core, design.ambient.nominal_k, None);
+    let c = circuit(design, core, design.ambient.nominal_k, hold_off);
     let u0 = quiet_airflow(design);
     let (t_end, h_max) = horizon(core);
     let Some(y0) = c.steady_state(u0) else {
@@ -269,7 +272,7 @@ pub fn puff(
         },
         y0,
         (duration_s * 4.0).max(0.25 * t_end).min(t_end),
-        h_max.min(duration_s / 20.0),
+        h_max,
     );
     let trip = run
         .events
@@ -279,21 +282,31 @@ pub fn puff(
     (trip, run)
 }
 
-/// The peak (from the quiet airflow towards tripping) that just trips a
-/// puff of this duration, by bisection between the quiet airflow and 100×
-/// the trip airflow (rising) or still air (falling); `None` when none does.
+/// Where the threshold search stops: 100× the trip airflow, at most
+/// 100 m/s (rising), or still air (falling), m/s.
+pub fn threshold_limit(design: &Design) -> f64 {
+    match design.detector.trip_on {
+        TripDirection::Rising => (100.0 * design.detector.trip_airflow_m_per_s).min(100.0),
+        TripDirection::Falling => 0.0,
+    }
+}
+
+/// The puff peak (a rise for a rising trip, a dip for a falling one) that
+/// just trips a puff of this duration, by bisection between the quiet
+/// airflow and [`threshold_limit`]; `None` when none does.
 pub fn threshold_peak(
     design: &Design,
     core: &SizedCore,
-    duration_s: f64,
-    half_sine: bool,
+    (duration_s, half_sine): (f64, bool),
+    hold_off: Option<HoldOff>,
 ) -> Option<f64> {
     let u0 = quiet_airflow(design);
-    let far = match design.detector.trip_on {
-        TripDirection::Rising => 100.0 * design.detector.trip_airflow_m_per_s,
-        TripDirection::Falling => 0.0,
+    let far = threshold_limit(design);
+    let trips = |p: f64| {
+        puff(design, core, (p, duration_s, half_sine), hold_off)
+            .0
+            .is_some()
     };
-    let trips = |p: f64| puff(design, core, p, duration_s, half_sine).0.is_some();
     if !trips(far) {
         return None;
     }
@@ -314,8 +327,13 @@ pub fn threshold_peak(
 
 /// A recorded airflow history: the run from the steady state at its first
 /// airflow.
-pub fn history(design: &Design, core: &SizedCore, rows: Vec<(f64, f64)>) -> Run {
-    let c = circuit(design, core, design.ambient.nominal_k, None);
+pub fn history(
+    design: &Design,
+    core: &SizedCore,
+    rows: Vec<(f64, f64)>,
+    hold_off: Option<HoldOff>,
+) -> Run {
+    let c = circuit(design, core, design.ambient.nominal_k, hold_off);
     let (_, h_max) = horizon(core);
     let t0 = rows.first().map_or(0.0, |r| r.0);
     let t_end = rows.last().map_or(0.0, |r| r.0) - t0;
@@ -401,8 +419,11 @@ pub struct TransientReport {
     /// Whether the scenario's check passes (power-on: no false alarm beyond
     /// the grace with the design's hold-off; other scenarios: true).
     pub passed: bool,
-    /// Switching times.
+    /// Switching times (power-on: without a hold-off capacitor).
     pub events: Vec<EventRow>,
+    /// Power-on with the hold-off capacitor, nominal ambient (empty
+    /// without one).
+    pub events_with_hold_off: Vec<EventRow>,
     /// Power-on at the nominal ambient and the quiet airflow, without a
     /// hold-off: how long the output is falsely active, s (0 when never).
     pub false_alarm_s: Option<f64>,
@@ -480,6 +501,7 @@ pub fn report(
         scenario: String::new(),
         passed: true,
         events: Vec::new(),
+        events_with_hold_off: Vec::new(),
         false_alarm_s: None,
         false_alarm_coldest_s: None,
         settle_s: None,
@@ -495,6 +517,16 @@ pub fn report(
     };
     let u_q = quiet_airflow(design);
     let mut runs = Vec::new();
+    let hold = choose_hold_off(design, core);
+    let fitted = match hold {
+        HoldOffChoice::Fitted(h) => Some(h),
+        _ => None,
+    };
+    let with_cap = if fitted.is_some() {
+        "; with the design's hold-off capacitor CH1 in place"
+    } else {
+        ""
+    };
     match scenario {
         Scenario::PowerOn => {
             r.scenario = "power-on".into();
@@ -511,13 +543,13 @@ pub fn report(
             r.settle_coldest_s = Some(coldest.settle_s);
             r.settled_sense_v = Some(nominal.settled_sense_v);
             r.notes.push(format!(
-                "element and any twin start at the ambient, rails at nominal; airflow held at {u_q} m/s (the quiet airflow, where the output must stay idle); settled means within ±{:.1} mV (half the hysteresis band) of {:.4} V",
+                "element and any twin start at the ambient, rails at nominal, nominal parts; airflow held at {u_q} m/s (the quiet airflow, where the output must stay idle); settled means within ±{:.2} mV (half the hysteresis band) of {:.4} V; the false alarms, settling times and edges above are without a hold-off capacitor",
                 1e3 * nominal.window_v,
                 nominal.settled_sense_v
             ));
             let worst = nominal.false_alarm_s.max(coldest.false_alarm_s);
             let grace = design.detector.power_on_grace_s;
-            match choose_hold_off(design, core) {
+            match hold {
                 HoldOffChoice::NotNeeded => {
                     r.recommendations.push(if worst > 0.0 {
                         format!("the false alarm ({worst:.2} s) is within the accepted power_on_grace ({grace} s): no hold-off")
@@ -542,18 +574,34 @@ pub fn report(
                     let with = worst_false_alarm(design, core, Some(h));
                     r.passed = with <= grace;
                     let tau = hold_off_tau(core, &h);
+                    let given = matches!(
+                        design.detector.power_on_hold_off,
+                        crate::design::model::HoldOffSpec::Fixed(_)
+                    );
+                    let how = if given {
+                        "as the design file gives it".to_string()
+                    } else {
+                        format!("{HOLD_OFF_MARGIN}× the smallest that removes the false alarm, next E6 value up")
+                    };
                     r.recommendations.push(format!(
-                        "fit a {} capacitor {} (τ ≈ {tau:.2} s with the divider; {HOLD_OFF_MARGIN}× the smallest that removes the false alarm, next E6 value up); with it the false alarm is {with:.3} s",
+                        "{} a {} capacitor {} (τ ≈ {} with the divider; {how}); with it the false alarm is {with:.3} s. The detector cannot trip for about 5τ after each power-on. An electrolytic's leakage (up to about 0.01·C·V, IEC 60384-4) flows into the divider and shifts the reference: choose a low-leakage part",
+                        if given { "with" } else { "fit" },
                         crate::quantity::format_engineering(h.capacitance_f, "F", 2),
-                        placement(&h)
+                        placement(&h),
+                        crate::quantity::format_engineering(tau, "s", 3)
                     ));
+                    if with > grace && given {
+                        r.recommendations.push("the given capacitor does not remove the false alarm: leave power_on_hold_off as \"auto\" to have one sized".into());
+                    }
                     r.hold_off = Some(HoldOffRow {
                         capacitance_f: h.capacitance_f,
                         placement: placement(&h),
                         time_constant_s: tau,
                         false_alarm_with_it_s: with,
                     });
-                    runs.push(power_on(design, core, design.ambient.nominal_k, Some(h)).run);
+                    let run = power_on(design, core, design.ambient.nominal_k, Some(h)).run;
+                    r.events_with_hold_off = rows(&run.events, design.ambient.nominal_k);
+                    runs.push(run);
                 }
             }
             runs.insert(0, coldest.run);
@@ -561,13 +609,18 @@ pub fn report(
         }
         Scenario::Step(to) => {
             r.scenario = "step".into();
-            let (trip, release, run, back) = step(design, core, *to);
+            let (trip, release, run, back) = step(design, core, *to, fitted);
             r.events = rows(&run.events, design.ambient.nominal_k);
             r.time_to_trip_s = trip;
             r.time_to_release_s = release;
             r.notes.push(format!(
-                "from the steady state at {u_q} m/s to {to} m/s at t = 0, back to {u_q} m/s at t = {back:.2} s; nominal ambient and rails"
+                "from the steady state at {u_q} m/s to {to} m/s at t = 0, back to {u_q} m/s at t = {back:.2} s; nominal ambient and rails{with_cap}"
             ));
+            if trip.is_none() {
+                r.notes.push(format!(
+                    "it does not trip: {to} m/s lies on the idle side of the trip point"
+                ));
+            }
             runs.push(run);
         }
         Scenario::Puff {
@@ -576,23 +629,40 @@ pub fn report(
             half_sine,
         } => {
             r.scenario = "puff".into();
-            let (trip, run) = puff(design, core, *peak, *duration_s, *half_sine);
+            let (trip, run) = puff(design, core, (*peak, *duration_s, *half_sine), fitted);
             r.events = rows(&run.events, design.ambient.nominal_k);
             r.time_to_trip_s = trip;
-            r.threshold_peak_m_per_s = threshold_peak(design, core, *duration_s, *half_sine);
+            r.threshold_peak_m_per_s =
+                threshold_peak(design, core, (*duration_s, *half_sine), fitted);
+            let (what, which) = match design.detector.trip_on {
+                TripDirection::Rising => ("puff", "the smallest peak"),
+                TripDirection::Falling => ("dip", "the highest dip"),
+            };
             r.notes.push(format!(
-                "a {} puff from {u_q} m/s to {peak} m/s lasting {duration_s} s from t = 0; the threshold is the peak that just trips a puff of this shape and duration",
-                if *half_sine { "half-sine" } else { "rectangular" }
+                "a {} {what} from {u_q} m/s to {peak} m/s lasting {duration_s} s from t = 0; the threshold is {which} that just trips a {what} of this shape and duration, searched {} {} m/s{with_cap}",
+                if *half_sine { "half-sine" } else { "rectangular" },
+                if design.detector.trip_on == TripDirection::Rising {
+                    "up to"
+                } else {
+                    "down to"
+                },
+                threshold_limit(design)
             ));
             runs.push(run);
         }
         Scenario::History(rows_in) => {
             r.scenario = "airflow-file".into();
-            let run = history(design, core, rows_in.clone());
+            let run = history(design, core, rows_in.clone(), fitted);
             r.events = rows(&run.events, design.ambient.nominal_k);
-            r.notes.push("from the steady state at the history's first airflow; linear between rows; nominal ambient and rails".into());
+            r.notes.push(format!("from the steady state at the history's first airflow; linear between rows; nominal ambient and rails{with_cap}"));
             runs.push(run);
         }
+    }
+    if let Some(t) = runs.iter().find_map(|run| run.stopped_at_s) {
+        r.passed = false;
+        r.notes.push(format!(
+            "the integration had to stop at t = {t:.6} s (its step fell below 1e-12 s): the figures after that are missing"
+        ));
     }
     (r, runs)
 }

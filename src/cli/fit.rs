@@ -30,7 +30,13 @@ fn parse_table(name: &str, text: &str) -> Result<Table, String> {
     let (_, header) = lines.next().ok_or(format!(
         "{name}: empty file: expected a header line and readings"
     ))?;
+    let header = header.trim_start_matches('\u{feff}');
     let names: Vec<String> = header.split(',').map(|s| s.trim().to_string()).collect();
+    for (i, n) in names.iter().enumerate() {
+        if names[..i].contains(n) {
+            return Err(format!("{name}:1: the column `{n}` appears twice"));
+        }
+    }
     let known = [
         "airflow_m_per_s",
         "element_voltage_v",
@@ -86,7 +92,7 @@ impl Table {
 pub fn run(readings: &Path, design_path: &Path, format: Format) -> ExitCode {
     let rname = super::shown_name(readings);
     let dname = super::shown_name(design_path);
-    let text = match read(readings) {
+    let text = match super::read_data(readings, "readings") {
         Ok(s) => s,
         Err(e) => return fail(&e),
     };
@@ -153,7 +159,7 @@ pub fn run(readings: &Path, design_path: &Path, format: Format) -> ExitCode {
                     design_file: dname.clone(),
                     kind: "airflow".into(),
                     readings: readings.len(),
-                    section: king_section(&k),
+                    section: king_section(&k, design.detector.trip_airflow_m_per_s),
                     king: Some(k),
                     still_air: None,
                 },
@@ -181,7 +187,7 @@ pub fn run(readings: &Path, design_path: &Path, format: Format) -> ExitCode {
                     design_file: dname.clone(),
                     kind: "still-air".into(),
                     readings: readings.len(),
-                    section: still_air_section(&f),
+                    section: still_air_section(&f, law),
                     king: None,
                     still_air: Some(f),
                 },

@@ -346,6 +346,20 @@ fn read(path: &Path) -> Result<String, String> {
         .map_err(|e| format!("error: cannot read design file {}: {e}", path.display()))
 }
 
+/// Read a data file (readings, an airflow history) as UTF-8, with a
+/// message that names it (no "error:" prefix: the caller adds one).
+fn read_data(path: &Path, what: &str) -> Result<String, String> {
+    let bytes = std::fs::read(path)
+        .map_err(|e| format!("cannot read the {what} file {}: {e}", path.display()))?;
+    String::from_utf8(bytes).map_err(|e| {
+        format!(
+            "{}: not UTF-8 text (invalid byte at offset {}): save the {what} as UTF-8 CSV",
+            path.display(),
+            e.utf8_error().valid_up_to()
+        )
+    })
+}
+
 /// Run the command line and return its exit status.
 pub fn run() -> ExitCode {
     let cli = match Cli::try_parse() {

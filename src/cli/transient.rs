@@ -31,14 +31,15 @@ fn usage(msg: &str) -> ExitCode {
     ExitCode::from(EXIT_INPUT)
 }
 
-fn quantity(flag: &str, text: Option<&str>, dim: Dimension) -> Result<f64, String> {
+fn quantity(flag: &str, text: Option<&str>, dim: Dimension, hi: f64) -> Result<f64, String> {
     let t = text.ok_or(format!("{flag} is required for this scenario"))?;
     let x = parse_quantity(t, dim).map_err(|e| format!("{flag}: {e}"))?;
-    if x.is_finite() && x >= 0.0 {
+    if x.is_finite() && (0.0..=hi).contains(&x) {
         Ok(x)
     } else {
         Err(format!(
-            "{flag}: expected a value of at least zero, found {t}"
+            "{flag}: expected 0 to {hi} {}, found {t}",
+            dim.si_unit()
         ))
     }
 }
@@ -47,11 +48,11 @@ fn quantity(flag: &str, text: Option<&str>, dim: Dimension) -> Result<f64, Strin
 /// increasing.
 pub fn read_history(path: &Path) -> Result<Vec<(f64, f64)>, String> {
     let name = path.display().to_string();
-    let text = read(path)?;
+    let text = super::read_data(path, "airflow history")?;
     let mut lines = text.lines().enumerate();
     let header = lines
         .next()
-        .map(|(_, l)| l.trim().to_string())
+        .map(|(_, l)| l.trim().trim_start_matches('\u{feff}').to_string())
         .unwrap_or_default();
     let cols: Vec<&str> = header.split(',').map(str::trim).collect();
     if cols != ["time_s", "airflow_m_per_s"] {
@@ -124,6 +125,14 @@ pub fn run(path: &Path, ask: Ask<'_>, format: Format) -> ExitCode {
         Ok(d) => d,
         Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
     };
+    // Options that the chosen run would ignore are mistakes.
+    let is = |n: &str| ask.scenario == Some(n);
+    if ask.to.is_some() && !is("step") {
+        return usage("--to is only for --scenario step");
+    }
+    if (ask.peak.is_some() || ask.duration.is_some()) && !is("puff") {
+        return usage("--peak and --duration are only for --scenario puff");
+    }
     let scenario = match (ask.scenario, ask.airflow_file) {
         (Some(_), Some(_)) => return usage("give --scenario or --airflow-file, not both"),
         (None, Some(f)) => match read_history(f) {
@@ -131,23 +140,21 @@ pub fn run(path: &Path, ask: Ask<'_>, format: Format) -> ExitCode {
             Err(e) => return usage(&e),
         },
         (Some("power-on") | None, None) => Scenario::PowerOn,
-        (Some("step"), None) => match quantity("--to", ask.to, Dimension::Velocity) {
+        (Some("step"), None) => match quantity("--to", ask.to, Dimension::Velocity, 100.0) {
             Ok(u) => Scenario::Step(u),
             Err(e) => return usage(&e),
         },
         (Some("puff"), None) => {
-            let peak = quantity("--peak", ask.peak, Dimension::Velocity);
-            let dur = quantity("--duration", ask.duration, Dimension::Time);
+            let peak = quantity("--peak", ask.peak, Dimension::Velocity, 100.0);
+            let dur = quantity("--duration", ask.duration, Dimension::Time, 3600.0);
             match (peak, dur) {
-                (Ok(peak), Ok(d)) if d > 0.0 && d <= 3600.0 => Scenario::Puff {
+                (Ok(peak), Ok(d)) if d >= 1e-4 => Scenario::Puff {
                     peak,
                     duration_s: d,
                     half_sine: ask.half_sine,
                 },
                 (Ok(_), Ok(d)) => {
-                    return usage(&format!(
-                        "--duration: expected 0 s < duration ≤ 1 h, found {d} s"
-                    ))
+                    return usage(&format!("--duration: expected 0.1 ms to 1 h, found {d} s"))
                 }
                 (Err(e), _) | (_, Err(e)) => return usage(&e),
             }

@@ -37,44 +37,42 @@ pub fn render_text(r: &TransientReport) -> String {
     heading(&mut o, "Results");
     match r.scenario.as_str() {
         "power-on" => {
-            line(
-                &mut o,
-                "false alarm at power-on, nominal ambient",
-                &secs(r.false_alarm_s),
-            );
-            line(
-                &mut o,
-                "false alarm at power-on, coldest ambient",
-                &secs(r.false_alarm_coldest_s),
-            );
+            let bare = if r.hold_off.is_some() {
+                " (no CH1)"
+            } else {
+                ""
+            };
+            let rows = [
+                ("false alarm, nominal ambient", secs(r.false_alarm_s)),
+                (
+                    "false alarm, coldest ambient",
+                    secs(r.false_alarm_coldest_s),
+                ),
+                ("settles, nominal ambient", secs(r.settle_s)),
+                ("settles, coldest ambient", secs(r.settle_coldest_s)),
+            ];
+            for (label, value) in rows {
+                line(&mut o, &format!("{label}{bare}"), &value);
+            }
             line(
                 &mut o,
                 "accepted (power_on_grace)",
                 &format!("{:.3} s", r.power_on_grace_s),
             );
-            line(&mut o, "settles, nominal ambient", &secs(r.settle_s));
-            line(
-                &mut o,
-                "settles, coldest ambient",
-                &secs(r.settle_coldest_s),
-            );
             if let Some(v) = r.settled_sense_v {
                 line(&mut o, "settled sense voltage", &format!("{v:.4} V"));
             }
             if let Some(h) = &r.hold_off {
+                let eng = crate::quantity::format_engineering;
                 line(
                     &mut o,
-                    "hold-off capacitor",
-                    &crate::quantity::format_engineering(h.capacitance_f, "F", 2),
+                    "hold-off capacitor CH1",
+                    &eng(h.capacitance_f, "F", 2),
                 );
+                line(&mut o, "its time constant", &eng(h.time_constant_s, "s", 3));
                 line(
                     &mut o,
-                    "its time constant",
-                    &format!("{:.2} s", h.time_constant_s),
-                );
-                line(
-                    &mut o,
-                    "false alarm with it",
+                    "false alarm with CH1",
                     &format!("{:.3} s", h.false_alarm_with_it_s),
                 );
             }
@@ -95,27 +93,39 @@ pub fn render_text(r: &TransientReport) -> String {
             line(&mut o, "trips at", &secs(r.time_to_trip_s));
             line(
                 &mut o,
-                "smallest peak that trips",
-                &r.threshold_peak_m_per_s
-                    .map_or("none up to the search limit".to_string(), |u| {
-                        format!("{u:.3} m/s")
-                    }),
+                "threshold that just trips",
+                &r.threshold_peak_m_per_s.map_or(
+                    "none within the search range (see below)".to_string(),
+                    |u| format!("{u:.3} m/s"),
+                ),
             );
         }
         _ => {}
     }
-    heading(&mut o, "Output edges");
-    if r.events.is_empty() {
-        let _ = writeln!(o, "  none: the output does not switch");
-    } else {
+    let edges = |o: &mut String, title: &str, events: &[crate::analysis::transient::EventRow]| {
+        heading(o, title);
+        if events.is_empty() {
+            let _ = writeln!(o, "  none: the output does not switch");
+            return;
+        }
         let _ = writeln!(o, "  {:>12}  {:>9}  event", "time", "ambient");
-        for e in &r.events {
+        for e in events {
             let _ = writeln!(
                 o,
                 "  {:>10.4} s  {:>6.1} °C  {}",
                 e.time_s, e.ambient_c, e.kind
             );
         }
+    };
+    if r.scenario == "power-on" && r.hold_off.is_some() {
+        edges(&mut o, "Output edges without CH1", &r.events);
+        edges(
+            &mut o,
+            "Output edges with CH1 (nominal ambient)",
+            &r.events_with_hold_off,
+        );
+    } else {
+        edges(&mut o, "Output edges", &r.events);
     }
     if !r.recommendations.is_empty() {
         heading(&mut o, "Recommendations");

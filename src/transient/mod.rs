@@ -19,7 +19,7 @@
 //!
 //! The comparator is ideal and instantaneous: its output sinks when
 //! V+ < V−. Each switching time is located by bisection on the integrator's
-//! own step from the last accepted point (to 1e-9 s), so the output edges
+//! own step from the last accepted point (to 1e-10 s), so the output edges
 //! are as exact as the solution.
 
 pub mod dopri;
@@ -200,6 +200,9 @@ pub struct Sample {
 /// A whole run.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct Run {
+    /// Where the integration had to stop before the end (its step fell
+    /// below 1e-12 s), s; `None` when it reached the end.
+    pub stopped_at_s: Option<f64>,
     /// Switching times.
     pub events: Vec<Event>,
     /// The time series at every accepted step and every event.
@@ -435,8 +438,13 @@ impl Circuit<'_> {
         let mut t = 0.0;
         let mut h = (h_max * 1e-3).max(1e-6);
         let mut f = |tt: f64, yy: &State| self.rhs(airflow, tt, yy, st.get());
+        let mut tol = tol;
         for &stop in &breaks {
             let mut k = f(t, &y);
+            // A short segment (a brief puff) gets steps a twentieth of its
+            // length; longer ones keep the run's largest step.
+            tol.h_max = h_max.min((stop - t) / 20.0).max(1e-9);
+            h = h.min(tol.h_max);
             while t < stop - 1e-12 {
                 let hh = h.min(stop - t);
                 let (y1, k1, err) = dopri::step(&mut f, n, t, &y, &k, hh, &tol);
@@ -444,7 +452,11 @@ impl Circuit<'_> {
                     h = dopri::next_h(hh, if err.is_finite() { err } else { 1e6 }, &tol);
                     if h < 1e-12 {
                         // Cannot proceed: stop the run where it is.
-                        return Run { events, samples };
+                        return Run {
+                            stopped_at_s: Some(t),
+                            events,
+                            samples,
+                        };
                     }
                     continue;
                 }
@@ -490,6 +502,10 @@ impl Circuit<'_> {
             }
             t = stop;
         }
-        Run { events, samples }
+        Run {
+            stopped_at_s: None,
+            events,
+            samples,
+        }
     }
 }
