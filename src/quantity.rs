@@ -89,6 +89,34 @@ pub enum Dimension {
 }
 
 impl Dimension {
+    /// The plausible magnitudes of any quantity of this dimension in a
+    /// detector design, SI: (smallest non-zero, largest). A value outside is
+    /// refused at the door, whatever its key (draftwire's bounds, no source:
+    /// each spans several decades beyond the parts this tool sizes; docs/
+    /// design-file.md, Units, lists them). Keys with tighter physical ranges
+    /// check those as well.
+    pub fn plausible_magnitude(self) -> (f64, f64) {
+        match self {
+            Dimension::Resistance => (1e-6, 1e10),
+            Dimension::Voltage => (1e-6, 1e3),
+            Dimension::Current => (1e-12, 100.0),
+            Dimension::Power => (1e-12, 1e4),
+            Dimension::Velocity => (1e-9, 100.0),
+            Dimension::Temperature => (1.0, 4000.0),
+            Dimension::TemperatureDifference => (1e-6, 1e4),
+            Dimension::ThermalConductance => (1e-9, 1e3),
+            Dimension::ThermalResistance => (1e-6, 1e6),
+            Dimension::HeatCapacity => (1e-9, 100.0),
+            Dimension::Fraction => (1e-12, 1e3),
+            Dimension::TemperatureCoefficient => (1e-9, 1.0),
+            Dimension::Capacitance => (1e-15, 10.0),
+            Dimension::Length => (1e-8, 100.0),
+            Dimension::Time => (1e-9, 1e6),
+            Dimension::Pressure => (1.0, 1e7),
+            Dimension::Resistivity => (1e-12, 1.0),
+        }
+    }
+
     /// Lower-case English name, e.g. "resistance".
     pub fn name(self) -> &'static str {
         match self {
@@ -715,17 +743,11 @@ pub fn sign_of(x: f64) -> &'static str {
 
 /// A plain number rounded to `significant_digits` without trailing zeros
 /// and without float noise: `(0.21000000000000002, 3)` → "0.21",
-/// `(6.393, 2)` → "6.4". Not finite values are written "undefined", "∞".
+/// `(6.393, 2)` → "6.4". A non-finite value is written "—" (never
+/// printed as a number; the report's guard names it).
 pub fn format_sig(value: f64, significant_digits: usize) -> String {
-    if value.is_nan() {
-        return "undefined".into();
-    }
-    if value.is_infinite() {
-        return if value > 0.0 {
-            "∞".into()
-        } else {
-            "-∞".into()
-        };
+    if !value.is_finite() {
+        return "—".into();
     }
     let digits = significant_digits.clamp(1, 17);
     let rounded: f64 = format!("{:.*e}", digits - 1, value)
@@ -772,8 +794,8 @@ fn fraction_power(text: &str) -> Option<Result<f64, QuantityError>> {
 /// digits come from one correctly rounded decimal conversion and are only
 /// shifted, never rescaled in floating point, so the text parses back to the
 /// rounded value. Values beyond the prefix range are written with p or G
-/// ("0.001 pA", "1000 GΩ"). Never prints NaN: NaN is written "undefined",
-/// infinities "∞"/"-∞", each followed by the unit.
+/// ("0.001 pA", "1000 GΩ"). Never prints a non-finite number: it writes
+/// "—" (the report's guard names such a field as a defect).
 pub fn format_engineering(value_si: f64, unit_symbol: &str, significant_digits: usize) -> String {
     let join = |number: &str, prefix: &str| {
         if unit_symbol.is_empty() && prefix.is_empty() {
@@ -782,11 +804,10 @@ pub fn format_engineering(value_si: f64, unit_symbol: &str, significant_digits: 
             format!("{number} {prefix}{unit_symbol}")
         }
     };
-    if value_si.is_nan() {
-        return join("undefined", "");
-    }
-    if value_si.is_infinite() {
-        return join(if value_si > 0.0 { "∞" } else { "-∞" }, "");
+    // A non-finite figure is never printed: the report's guard names it
+    // as a defect (`Report::guarded`).
+    if !value_si.is_finite() {
+        return "—".to_string();
     }
     if value_si == 0.0 {
         return join("0", "");
@@ -1221,9 +1242,10 @@ mod tests {
         assert_eq!(format_engineering(1e-15, "A", 1), "0.001 pA");
         assert_eq!(format_engineering(1500.0, "", 2), "1.5 k");
         assert_eq!(format_engineering(1.5, "", 2), "1.5");
-        assert_eq!(format_engineering(f64::NAN, "V", 3), "undefined V");
-        assert_eq!(format_engineering(f64::INFINITY, "V", 3), "∞ V");
-        assert_eq!(format_engineering(f64::NEG_INFINITY, "V", 3), "-∞ V");
+        // Never printed: the report's guard names the field instead.
+        assert_eq!(format_engineering(f64::NAN, "V", 3), "—");
+        assert_eq!(format_engineering(f64::INFINITY, "V", 3), "—");
+        assert_eq!(format_engineering(f64::NEG_INFINITY, "V", 3), "—");
         assert_eq!(format_engineering(0.0352, "A", 0), "40 mA");
     }
 

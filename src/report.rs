@@ -408,6 +408,27 @@ impl Report {
     pub fn passed(&self) -> bool {
         self.checks.iter().all(|c| c.passed)
     }
+    /// The guard against non-finite numbers: every NaN or infinite field
+    /// is named in a failing `internal-non-finite` check (a defect of the
+    /// tool, not a figure) and set to no value where the field allows one.
+    pub fn guarded(mut self) -> Self {
+        let bad = crate::render::guard::non_finite_fields(&self);
+        if !bad.is_empty() {
+            self.checks.push(
+                Check::judged(
+                    "internal-non-finite",
+                    "every figure is a finite number",
+                    false,
+                )
+                .at("the report as computed")
+                .detail(format!(
+                    "a defect in draftwire: these figures came out as NaN or infinite and are not printed: {}; please report it with the design file",
+                    bad.join(", ")
+                )),
+            );
+        }
+        self
+    }
     /// Set [`Report::passed`] from the checks.
     pub fn with_verdict(mut self) -> Self {
         self.passed = self.passed();

@@ -114,6 +114,7 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
         cautions,
         assumptions: design.assumptions.clone(),
     }
+    .guarded()
     .with_verdict())
 }
 

@@ -74,6 +74,12 @@ pub enum SizeError {
     /// The ambient compensation cannot be sized.
     #[error("ambient compensation: {0}")]
     Compensation(String),
+    /// The element loses no heat in still air, so no drive gives a
+    /// still-air overheat.
+    #[error(
+        "the element loses no heat in still air (King's A = 0): any current heats it without bound there, so no drive can be sized for a still-air overheat; give A > 0 (a real wire always loses some heat by conduction, free convection and radiation) or a fixed drive"
+    )]
+    NoStillAirLoss,
 }
 
 fn solve_ctx(context: &str) -> impl Fn(SolveError) -> SizeError + '_ {
@@ -223,6 +229,10 @@ fn size_drive(design: &Design, env: &Environment) -> Result<(f64, Option<f64>), 
         let p = element.cooling_law().heat_loss_w(t, 0.0, env);
         ((p / r).sqrt(), r)
     };
+    // An element that loses no heat in still air (King's A = 0 and nothing
+    // else) runs away on any current there: no drive gives it a still-air
+    // overheat.
+    let still_loss = |t: f64| element.cooling_law().heat_loss_w(t, 0.0, env);
     match design.drive {
         DriveSpec::SeriesResistor {
             series_ohm: Sizable::Fixed(r),
@@ -236,6 +246,9 @@ fn size_drive(design: &Design, env: &Environment) -> Result<(f64, Option<f64>), 
             rail,
         } => {
             let t = target(design.overheat.as_ref().ok_or(SizeError::OverheatMissing)?)?;
+            if still_loss(t).is_nan() || still_loss(t) <= 0.0 {
+                return Err(SizeError::NoStillAirLoss);
+            }
             let (i, r) = needed(t);
             let rail_v = design.supply.rail_v(rail);
             let rs = rail_v / i - r;
@@ -254,6 +267,9 @@ fn size_drive(design: &Design, env: &Environment) -> Result<(f64, Option<f64>), 
             current_a: Sizable::Auto,
         } => {
             let t = target(design.overheat.as_ref().ok_or(SizeError::OverheatMissing)?)?;
+            if still_loss(t).is_nan() || still_loss(t) <= 0.0 {
+                return Err(SizeError::NoStillAirLoss);
+            }
             let (i, _) = needed(t);
             // A current source is set, not picked from a series: keep three
             // significant figures.

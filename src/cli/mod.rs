@@ -342,8 +342,20 @@ fn read(path: &Path) -> Result<String, String> {
             .map(|_| s)
             .map_err(|e| format!("error: cannot read the design from standard input: {e}"));
     }
-    std::fs::read_to_string(path)
-        .map_err(|e| format!("error: cannot read design file {}: {e}", path.display()))
+    let bytes = std::fs::read(path)
+        .map_err(|e| format!("error: cannot read design file {}: {e}", path.display()))?;
+    String::from_utf8(bytes).map_err(|e| {
+        let at = e.utf8_error().valid_up_to();
+        let good = &e.as_bytes()[..at];
+        let line = good.iter().filter(|&&b| b == b'\n').count() + 1;
+        let line_start = good.iter().rposition(|&b| b == b'\n').map_or(0, |i| i + 1);
+        let column = String::from_utf8_lossy(&good[line_start..]).chars().count() + 1;
+        format!(
+            "error: {}:{line}:{column}: not UTF-8 text: invalid byte 0x{:02X} at byte offset {at}; save the design file as UTF-8",
+            path.display(),
+            e.as_bytes()[at]
+        )
+    })
 }
 
 /// Read a data file (readings, an airflow history) as UTF-8, with a

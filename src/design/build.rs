@@ -361,14 +361,22 @@ fn build_detector(
         Some(v) => match v.get_ref() {
             Scalar::Text(s) if s.trim().eq_ignore_ascii_case("none") => HysteresisSpec::None,
             Scalar::Text(s) => {
-                if let Ok(u) = parse_quantity(s, Dimension::Velocity) {
-                    if u <= 0.0 {
-                        return Err(rd.err(Some(v.span()), "detector.hysteresis", format!("expected a band above 0 m/s, found {u} m/s")));
+                if parse_quantity(s, Dimension::Velocity).is_ok() {
+                    // Through the reader, so the plausible range applies.
+                    let u = rd.quantity(v, "detector.hysteresis", Dimension::Velocity)?;
+                    if u <= 0.0 || u >= 10.0 * trip_airflow_m_per_s {
+                        return Err(rd.err(Some(v.span()), "detector.hysteresis", format!("expected a band above 0 m/s and below ten times the trip airflow, found {u} m/s")));
                     }
                     HysteresisSpec::Airflow(u)
                 } else {
                     match parse_quantity(s, Dimension::Voltage) {
-                        Ok(x) if x > 0.0 => HysteresisSpec::Volts(x),
+                        Ok(_) => {
+                            let x = rd.quantity(v, "detector.hysteresis", Dimension::Voltage)?;
+                            if x <= 0.0 {
+                                return Err(rd.err(Some(v.span()), "detector.hysteresis", format!("expected a band above 0 V, found {x} V")));
+                            }
+                            HysteresisSpec::Volts(x)
+                        }
                         _ => {
                             return Err(rd.err(
                                 Some(v.span()),

@@ -57,7 +57,7 @@ impl Diagnostic {
             let width = source[start..caret_end].chars().count().max(1);
             d.line = Some(line_no);
             d.column = Some(col);
-            d.snippet = Some((text, col - 1..col - 1 + width));
+            d.snippet = Some(cut_snippet(&text, col - 1, width));
         }
         d
     }
@@ -99,6 +99,33 @@ impl fmt::Display for Diagnostic {
 }
 
 impl std::error::Error for Diagnostic {}
+
+/// Longest source line shown in a snippet, characters.
+pub const SNIPPET_MAX_CHARS: usize = 120;
+
+/// A source line cut to [`SNIPPET_MAX_CHARS`] around the caret (with "…"
+/// where it was cut), and the caret's range in the cut text (characters).
+fn cut_snippet(text: &str, caret: usize, width: usize) -> (String, Range<usize>) {
+    let chars: Vec<char> = text.chars().collect();
+    if chars.len() <= SNIPPET_MAX_CHARS {
+        return (text.to_string(), caret..caret + width);
+    }
+    let width = width.min(SNIPPET_MAX_CHARS / 2);
+    let start = caret.saturating_sub(SNIPPET_MAX_CHARS / 4);
+    let end = (start + SNIPPET_MAX_CHARS).min(chars.len());
+    let mut out = String::new();
+    let mut shift = 0;
+    if start > 0 {
+        out.push('…');
+        shift = 1;
+    }
+    out.extend(&chars[start..end]);
+    if end < chars.len() {
+        out.push('…');
+    }
+    let c = caret - start + shift;
+    (out, c..c + width)
+}
 
 /// Levenshtein edit distance (Levenshtein, Soviet Physics Doklady 10
 /// (1966) 707), used for "did you mean" hints.

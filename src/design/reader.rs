@@ -33,6 +33,44 @@ impl<'a> Reader<'a> {
     }
 
     pub(crate) fn quantity(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
+        let x = self.quantity_unchecked(v, field, dim)?;
+        let (lo, hi) = dim.plausible_magnitude();
+        let unit = dim.si_unit();
+        let unit = if unit == "1" { "" } else { unit };
+        let show = |y: f64| {
+            if !y.is_finite() {
+                format!("{y}")
+            } else if y == 0.0 || (1e-12..=1e12).contains(&y.abs()) {
+                crate::quantity::format_engineering(y, unit, 4)
+            } else {
+                format!("{y:.3e} {unit}").trim_end().to_string()
+            }
+        };
+        if !x.is_finite() {
+            return Err(self.err(
+                Some(v.span()),
+                field,
+                format!("expected a finite {}, found {}", dim.name(), show(x)),
+            ));
+        }
+        if x != 0.0 && !(lo..=hi).contains(&x.abs()) {
+            return Err(self.err(
+                Some(v.span()),
+                field,
+                format!(
+                    "expected a {} of magnitude {} to {} (the plausible range for any {} in a detector design; docs/design-file.md, Units), found {}",
+                    dim.name(),
+                    show(lo),
+                    show(hi),
+                    dim.name(),
+                    show(x)
+                ),
+            ));
+        }
+        Ok(x)
+    }
+
+    fn quantity_unchecked(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
         let text = match v.get_ref() {
             Scalar::Text(t) if t.trim().eq_ignore_ascii_case("auto") => {
                 return Err(self.err(
@@ -213,7 +251,38 @@ pub(crate) fn toml_error(file: &str, source: &str, e: &toml::de::Error) -> Diagn
                 .map(|c| format!("did you mean `{c}`?"));
         }
     }
-    let message = if let Some(rest) = message.strip_prefix("missing field `") {
+    let message = if message == "duplicate key" {
+        // Name the key and where it was first given.
+        let span = e.span().unwrap_or(0..0);
+        let key = source
+            .get(span.clone())
+            .unwrap_or("")
+            .trim()
+            .trim_matches(|c| c == '[' || c == ']' || c == '"')
+            .to_string();
+        let first = source[..span.start.min(source.len())]
+            .lines()
+            .enumerate()
+            .find(|(_, l)| {
+                let l = l.trim();
+                let head = l.trim_start_matches('[').trim_end_matches(']').trim();
+                (l.starts_with('[') && head == key)
+                    || l.split('=').next().map(str::trim) == Some(key.as_str())
+            })
+            .map(|(i, _)| i + 1);
+        match first {
+            Some(line) => format!("duplicate key `{key}`: it was first given on line {line}"),
+            None => format!("duplicate key `{key}`"),
+        }
+    } else if message.contains("number overflowed")
+        || message.contains("integer overflow")
+        || message.contains("as i128")
+    {
+        "the number is too large to read: write it with a unit and an exponent, such as \"1e6 ohm\""
+            .to_string()
+    } else if message.contains("recursion") {
+        "nesting too deep: a design file needs at most a table inside a table".to_string()
+    } else if let Some(rest) = message.strip_prefix("missing field `") {
         let key = rest.split('`').next().unwrap_or_default();
         format!("missing required key or table `{key}` (docs/design-file.md lists what it holds)")
     } else if message.contains("untagged enum Scalar") {

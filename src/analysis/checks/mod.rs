@@ -61,6 +61,7 @@ pub const CHECK_IDS: &[&str] = &[
     "regulator-dropout",
     "regulator-junction",
     "design-sizable",
+    "internal-non-finite",
     "power-rating-",
 ];
 
