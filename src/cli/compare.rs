@@ -39,9 +39,9 @@ pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> E
         assumptions: Vec::new(),
     }];
     for path in candidate_files {
-        let text = match read(path) {
+        let text = match super::read_data(path, "candidates") {
             Ok(s) => s,
-            Err(e) => return super::input_error(format, &e, None),
+            Err(e) => return super::input_error(format, &format!("error: {e}"), None),
         };
         match parse_candidates(&super::shown_name(path), &text, &design) {
             Ok(cs) => list.extend(cs),

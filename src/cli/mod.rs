@@ -361,8 +361,15 @@ fn read(path: &Path) -> Result<String, String> {
 /// Read a data file (readings, an airflow history) as UTF-8, with a
 /// message that names it (no "error:" prefix: the caller adds one).
 fn read_data(path: &Path, what: &str) -> Result<String, String> {
-    let bytes = std::fs::read(path)
-        .map_err(|e| format!("cannot read the {what} file {}: {e}", path.display()))?;
+    let bytes = if is_stdin(path) {
+        let mut b = Vec::new();
+        std::io::Read::read_to_end(&mut std::io::stdin(), &mut b)
+            .map_err(|e| format!("cannot read the {what} from standard input: {e}"))?;
+        b
+    } else {
+        std::fs::read(path)
+            .map_err(|e| format!("cannot read the {what} file {}: {e}", path.display()))?
+    };
     String::from_utf8(bytes).map_err(|e| {
         format!(
             "{}: not UTF-8 text (invalid byte at offset {}): save the {what} as UTF-8 CSV",
