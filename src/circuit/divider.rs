@@ -178,7 +178,7 @@ impl Divider {
 }
 
 /// The preferred values around `x`: two below and two above.
-fn neighbours(series: ESeries, x: f64) -> [f64; 4] {
+pub(crate) fn neighbours(series: ESeries, x: f64) -> [f64; 4] {
     let below = series.at_or_below(x);
     let above = series.at_or_above(x);
     [

@@ -1173,7 +1173,9 @@ fn build_output(
     let near = Some(o.load.span());
     let load = match rd.word(&o.load, "output.load", &["led", "buzzer", "relay"])? {
         "led" => Load::Led {
-            forward_v: rd.positive(
+            // An indicator LED: 0.5–10 V forward (infrared to a few LEDs in
+            // series), 1 µA–1 A (draftwire's ranges, no source).
+            forward_v: rd.positive_within(
                 rd.required(
                     &o.led_forward,
                     "output.led_forward",
@@ -1182,8 +1184,10 @@ fn build_output(
                 )?,
                 "output.led_forward",
                 Dimension::Voltage,
+                0.5,
+                10.0,
             )?,
-            current_a: rd.positive(
+            current_a: rd.positive_within(
                 rd.required(
                     &o.led_current,
                     "output.led_current",
@@ -1192,6 +1196,8 @@ fn build_output(
                 )?,
                 "output.led_current",
                 Dimension::Current,
+                1e-6,
+                1.0,
             )?,
         },
         "buzzer" => Load::Buzzer {

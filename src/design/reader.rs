@@ -115,6 +115,34 @@ impl<'a> Reader<'a> {
         }
     }
 
+    /// A positive quantity within a key's own physical range `[lo, hi]`
+    /// (SI), or an error at it.
+    pub(crate) fn positive_within(
+        &self,
+        v: &Value,
+        field: &str,
+        dim: Dimension,
+        lo: f64,
+        hi: f64,
+    ) -> R<f64> {
+        let x = self.positive(v, field, dim)?;
+        if (lo..=hi).contains(&x) {
+            return Ok(x);
+        }
+        let u = dim.si_unit();
+        Err(self.err(
+            Some(v.span()),
+            field,
+            format!(
+                "expected {} of {} to {}, found {}",
+                dim.name(),
+                crate::quantity::format_engineering(lo, u, 3),
+                crate::quantity::format_engineering(hi, u, 3),
+                crate::quantity::format_engineering(x, u, 4)
+            ),
+        ))
+    }
+
     pub(crate) fn non_negative(&self, v: &Value, field: &str, dim: Dimension) -> R<f64> {
         let x = self.quantity(v, field, dim)?;
         if x >= 0.0 {

@@ -23,7 +23,7 @@
 //! the slope and the mid-travel setting closest.
 
 use super::{Compensator, Leg, ThermistorNetwork, Twin};
-use crate::circuit::divider::{Divider, STANDARD_TRIMMER_OHM, TRIMMER_SPAN_MARGIN};
+use crate::circuit::divider::{neighbours, Divider, STANDARD_TRIMMER_OHM, TRIMMER_SPAN_MARGIN};
 use crate::circuit::frontend::{Arrangement, FrontEnd};
 use crate::design::model::{CompensationKind, Design, Sizable};
 use crate::drive::Drive;
@@ -578,18 +578,6 @@ pub fn ceil_sig(x: f64, digits: i32) -> f64 {
     let p = 10f64.powi(x.log10().floor() as i32 - digits + 1);
     let v = (x / p * (1.0 - 1e-12)).ceil() * p;
     crate::analysis::size::round_sig(v, digits as usize)
-}
-
-/// The preferred values around `x`: two below and two above.
-fn neighbours(series: ESeries, x: f64) -> [f64; 4] {
-    let below = series.at_or_below(x);
-    let above = series.at_or_above(x);
-    [
-        series.at_or_below(below * 0.999),
-        below,
-        above,
-        series.at_or_above(above * 1.001),
-    ]
 }
 
 #[cfg(test)]
