@@ -166,6 +166,16 @@ fn hostile_files_give_clear_messages() {
                 &format!("title = \"{}\"", "x".repeat(10_000_000)),
             )
             .into_bytes(),
+            2,
+            "far larger than a design file",
+        ),
+        (
+            "a long title",
+            good.replace(
+                "title = \"Workshop-door draught detector\"",
+                &format!("title = \"{}\"", "x".repeat(100_000)),
+            )
+            .into_bytes(),
             0,
             "",
         ),

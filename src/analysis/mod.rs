@@ -55,6 +55,7 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
         design.element.cooling_law().name()
     );
     let mut warnings: Vec<String> = design.element.plausibility_warnings().to_vec();
+    warnings.extend(divider_current_warning(design, &core));
     for (label, p) in &core.table {
         for w in design
             .element
@@ -116,6 +117,30 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
     }
     .guarded()
     .with_verdict())
+}
+
+/// A warning when the sized divider draws far from the current the file
+/// asks for (more than twice or less than half): the file's wish could not
+/// be honoured, and the report says why rather than staying silent.
+fn divider_current_warning(design: &Design, core: &size::SizedCore) -> Option<String> {
+    let wanted = design.detector.divider_current_a?;
+    let fe =
+        core.compensation
+            .front_at(&core.front, &core.env, design.detector.trip_airflow_m_per_s);
+    let drawn = fe.reference_rail_v / fe.divider.total_ohm();
+    if drawn <= 2.0 * wanted && drawn >= 0.5 * wanted {
+        return None;
+    }
+    let why = if core.compensation.is_some() {
+        "the compensation's slope fixes the divider's total resistance"
+    } else {
+        "the divider's parts (a given value, or the smallest standard trimmer that covers the span) fix its total resistance"
+    };
+    Some(format!(
+        "detector.divider_current asks for {}, but the sized divider draws {}: {why}",
+        crate::quantity::format_engineering(wanted, "A", 3),
+        crate::quantity::format_engineering(drawn, "A", 3)
+    ))
 }
 
 /// The compensation section, and the uncompensated design's trip at every

@@ -344,6 +344,13 @@ fn read(path: &Path) -> Result<String, String> {
     }
     let bytes = std::fs::read(path)
         .map_err(|e| format!("error: cannot read design file {}: {e}", path.display()))?;
+    if bytes.len() > MAX_DESIGN_BYTES {
+        return Err(format!(
+            "error: {}: {} bytes is far larger than a design file (a few kilobytes); draftwire reads at most {MAX_DESIGN_BYTES} bytes",
+            path.display(),
+            bytes.len()
+        ));
+    }
     String::from_utf8(bytes).map_err(|e| {
         let at = e.utf8_error().valid_up_to();
         let good = &e.as_bytes()[..at];
@@ -357,6 +364,11 @@ fn read(path: &Path) -> Result<String, String> {
         )
     })
 }
+
+/// Largest design file read, bytes: a design is a few kilobytes, and a
+/// file thousands of times larger is a mistake that would only cost time
+/// (draftwire's limit).
+const MAX_DESIGN_BYTES: usize = 1 << 20;
 
 /// Read a data file (readings, an airflow history) as UTF-8, with a
 /// message that names it (no "error:" prefix: the caller adds one).

@@ -110,7 +110,11 @@ impl<'a> Reader<'a> {
             Err(self.err(
                 Some(v.span()),
                 field,
-                format!("expected {} above zero, found {x}", dim.name()),
+                format!(
+                    "expected {} above zero, found {}",
+                    dim.name(),
+                    crate::quantity::format_sig(x, 6)
+                ),
             ))
         }
     }
@@ -151,7 +155,11 @@ impl<'a> Reader<'a> {
             Err(self.err(
                 Some(v.span()),
                 field,
-                format!("expected {} of at least zero, found {x}", dim.name()),
+                format!(
+                    "expected {} of at least zero, found {}",
+                    dim.name(),
+                    crate::quantity::format_sig(x, 6)
+                ),
             ))
         }
     }
@@ -166,9 +174,9 @@ impl<'a> Reader<'a> {
                 field,
                 format!(
                     "expected a fraction between {} % and {} %, found {} %",
-                    lo * 100.0,
-                    hi * 100.0,
-                    x * 100.0
+                    crate::quantity::format_sig(lo * 100.0, 6),
+                    crate::quantity::format_sig(hi * 100.0, 6),
+                    crate::quantity::format_sig(x * 100.0, 6)
                 ),
             ))
         }
