@@ -4,7 +4,6 @@
 //! power-on from raising a false alarm.
 
 use super::size::SizedCore;
-use crate::circuit::frontend::FrontEnd;
 use crate::design::model::{Design, HoldOffSpec, TripDirection};
 use crate::eseries::ESeries;
 use crate::transient::{Airflow, Circuit, Event, EventKind, HoldOff, Run};
@@ -30,13 +29,7 @@ pub fn quiet_airflow(design: &Design) -> f64 {
 }
 
 /// The sized circuit at ambient `ambient_k`, nominal rails.
-pub fn circuit<'a>(
-    design: &Design,
-    core: &'a SizedCore,
-    ambient_k: f64,
-    hold_off: Option<HoldOff>,
-) -> Circuit<'a> {
-    let _ = design;
+pub fn circuit(core: &SizedCore, ambient_k: f64, hold_off: Option<HoldOff>) -> Circuit<'_> {
     Circuit {
         element: &core.element,
         drive: core.drive,
@@ -44,7 +37,7 @@ pub fn circuit<'a>(
             ambient_k,
             ..core.env
         },
-        front: FrontEnd { ..core.front },
+        front: core.front,
         comp: &core.compensation,
         x: core.trimmer_x,
         active: super::size::active_state(core.stage),
@@ -88,7 +81,7 @@ pub fn power_on(
     ambient_k: f64,
     hold_off: Option<HoldOff>,
 ) -> PowerOn {
-    let c = circuit(design, core, ambient_k, hold_off);
+    let c = circuit(core, ambient_k, hold_off);
     let u = quiet_airflow(design);
     let (t_end, h_max) = horizon(core);
     let run = c.run(
@@ -219,7 +212,7 @@ pub fn step(
     to: f64,
     hold_off: Option<HoldOff>,
 ) -> (Option<f64>, Option<f64>, Run, f64) {
-    let c = circuit(design, core, design.ambient.nominal_k, hold_off);
+    let c = circuit(core, design.ambient.nominal_k, hold_off);
     let u0 = quiet_airflow(design);
     let (t_end, h_max) = horizon(core);
     // Held long enough to settle (half the horizon), then back.
@@ -257,7 +250,7 @@ pub fn puff(
     (peak, duration_s, half_sine): (f64, f64, bool),
     hold_off: Option<HoldOff>,
 ) -> (Option<f64>, Run) {
-    let c = circuit(design, core, design.ambient.nominal_k, hold_off);
+    let c = circuit(core, design.ambient.nominal_k, hold_off);
     let u0 = quiet_airflow(design);
     let (t_end, h_max) = horizon(core);
     let Some(y0) = c.steady_state(u0) else {
@@ -333,7 +326,7 @@ pub fn history(
     rows: Vec<(f64, f64)>,
     hold_off: Option<HoldOff>,
 ) -> Run {
-    let c = circuit(design, core, design.ambient.nominal_k, hold_off);
+    let c = circuit(core, design.ambient.nominal_k, hold_off);
     let (_, h_max) = horizon(core);
     let t0 = rows.first().map_or(0.0, |r| r.0);
     let t_end = rows.last().map_or(0.0, |r| r.0) - t0;

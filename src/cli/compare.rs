@@ -7,7 +7,7 @@
 //! each with the keys of `[element]` (and its `resistance`, `cooling` or
 //! `lamp` sub-tables as `[candidate.resistance]` …) plus a `label`.
 
-use super::{emit, read, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
+use super::{emit, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
 use draftwire::analysis::compare::compare;
 use draftwire::design::element::{parse_candidates, Candidate};
 use draftwire::render;
@@ -18,13 +18,9 @@ use std::process::ExitCode;
 /// candidate failed to size or solve, 2 on bad input.
 pub fn run(design_path: &Path, candidate_files: &[PathBuf], format: Format) -> ExitCode {
     let file = super::shown_name(design_path);
-    let source = match read(design_path) {
-        Ok(s) => s,
-        Err(e) => return super::input_error(format, &e, None),
-    };
-    let design = match super::parse_with_overrides(&file, &source) {
+    let design = match super::load_design(design_path, &file, format) {
         Ok(d) => d,
-        Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
+        Err(code) => return code,
     };
     // The design's own element is the first candidate, as already read.
     let own_label = design

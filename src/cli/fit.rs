@@ -1,12 +1,12 @@
 //! `draftwire fit`: read bench readings and a design, fit the element's
 //! cooling, render.
 
-use super::{emit, read, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
+use super::{emit, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
 use draftwire::fit::{
     conductances, fit_king, fit_still_air, king_section, still_air_section, AirflowReading,
     FitReport, StillAirReading,
 };
-use std::fmt::Write as _;
+use draftwire::render;
 use std::path::Path;
 use std::process::ExitCode;
 
@@ -96,13 +96,9 @@ pub fn run(readings: &Path, design_path: &Path, format: Format) -> ExitCode {
         Ok(s) => s,
         Err(e) => return fail(&e),
     };
-    let source = match read(design_path) {
-        Ok(s) => s,
-        Err(e) => return super::input_error(format, &e, None),
-    };
-    let design = match super::parse_with_overrides(&dname, &source) {
+    let design = match super::load_design(design_path, &dname, format) {
         Ok(d) => d,
-        Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
+        Err(code) => return code,
     };
     let table = match parse_table(&rname, &text) {
         Ok(t) => t,
@@ -199,128 +195,13 @@ pub fn run(readings: &Path, design_path: &Path, format: Format) -> ExitCode {
         }
     };
     let out = match format {
-        Format::Json => {
-            serde_json::to_string_pretty(&report)
-                .unwrap_or_else(|e| format!("{{\"error\": \"{e}\"}}"))
-                + "\n"
-        }
-        Format::Csv => residuals_csv(&report),
-        Format::Text => render_text(&report),
+        Format::Json => render::fit::render_json(&report),
+        Format::Csv => render::fit::render_csv(&report),
+        Format::Text => render::fit::render_text(&report),
         Format::Svg => return fail("--format svg is not available for fit"),
     };
     if !emit(&out) {
         return ExitCode::from(EXIT_INPUT);
     }
     ExitCode::from(EXIT_PASS)
-}
-
-fn residuals_csv(r: &FitReport) -> String {
-    let rows = r
-        .king
-        .as_ref()
-        .map(|k| &k.residuals)
-        .or(r.still_air.as_ref().map(|s| &s.residuals));
-    let unit = if r.king.is_some() { "w_per_k" } else { "ohm" };
-    let mut o = format!("airflow_m_per_s,measured_{unit},fitted_{unit},residual_{unit}\r\n");
-    for x in rows.into_iter().flatten() {
-        let _ = write!(
-            o,
-            "{},{},{},{}\r\n",
-            x.airflow_m_per_s, x.measured, x.fitted, x.residual
-        );
-    }
-    o
-}
-
-fn render_text(r: &FitReport) -> String {
-    let eng = |x: f64, u: &str| draftwire::quantity::format_engineering(x, u, 4);
-    let mut o = String::new();
-    let _ = writeln!(o, "draftwire fit · {} readings ({})", r.readings, r.kind);
-    let _ = writeln!(o, "readings      {}", r.readings_file);
-    let _ = writeln!(o, "design file   {} (its resistance law)", r.design_file);
-    let _ = writeln!(
-        o,
-        "\nFitted constants (± one standard error; 95 % interval = ± t·SE)\n{}",
-        "─".repeat(64)
-    );
-    if let Some(k) = &r.king {
-        let _ = writeln!(
-            o,
-            "  A   {:>14}  ± {}",
-            eng(k.a_w_per_k, "W/K"),
-            eng(k.a_stderr_w_per_k, "W/K")
-        );
-        let _ = writeln!(
-            o,
-            "  B   {:>14}  ± {}",
-            eng(k.b_w_per_k, "W/K"),
-            eng(k.b_stderr_w_per_k, "W/K")
-        );
-        let _ = writeln!(o, "  n   {:>14.4}  ± {:.4}", k.n, k.n_stderr);
-        let _ = writeln!(
-            o,
-            "  t = {:.3} ({} degrees of freedom); readings cover {} – {} m/s",
-            k.t95, k.degrees_of_freedom, k.airflow_range_m_per_s[0], k.airflow_range_m_per_s[1]
-        );
-        let _ = writeln!(o, "\nCovariance of (A, B, n), SI\n{}", "─".repeat(27));
-        for row in &k.covariance {
-            let _ = writeln!(o, "  {:>12.4e} {:>12.4e} {:>12.4e}", row[0], row[1], row[2]);
-        }
-        let _ = writeln!(
-            o,
-            "\nResiduals (conductance G = P/(T − T_a))\n{}",
-            "─".repeat(39)
-        );
-        let _ = writeln!(
-            o,
-            "  {:>10}  {:>12}  {:>12}  {:>12}",
-            "airflow", "measured", "fitted", "residual"
-        );
-        for x in &k.residuals {
-            let _ = writeln!(
-                o,
-                "  {:>6.3} m/s  {:>12}  {:>12}  {:>12}",
-                x.airflow_m_per_s,
-                eng(x.measured, "W/K"),
-                eng(x.fitted, "W/K"),
-                eng(x.residual, "W/K")
-            );
-        }
-    }
-    if let Some(s) = &r.still_air {
-        let _ = writeln!(
-            o,
-            "  R0  {:>14}  ± {}",
-            eng(s.r0_ohm, "Ω"),
-            eng(s.r0_stderr_ohm, "Ω")
-        );
-        let _ = writeln!(
-            o,
-            "  A   {:>14}  ± {}",
-            eng(s.a_w_per_k, "W/K"),
-            eng(s.a_stderr_w_per_k, "W/K")
-        );
-        let _ = writeln!(
-            o,
-            "  t = {:.3} ({} degrees of freedom)",
-            s.t95, s.degrees_of_freedom
-        );
-        let _ = writeln!(o, "\nResiduals (resistance)\n{}", "─".repeat(22));
-        for x in &s.residuals {
-            let _ = writeln!(
-                o,
-                "  measured {:>12}  fitted {:>12}  residual {:>12}",
-                eng(x.measured, "Ω"),
-                eng(x.fitted, "Ω"),
-                eng(x.residual, "Ω")
-            );
-        }
-    }
-    let _ = writeln!(
-        o,
-        "\nPaste into the design file\n{}\n{}",
-        "─".repeat(26),
-        r.section
-    );
-    o
 }

@@ -49,6 +49,18 @@ fn parse_with_overrides(
     draftwire::design::parse_design_with(file, source, OVERRIDES.get().map_or(&[], |v| v))
 }
 
+/// Read a design file and parse it with the command line's overrides; on
+/// failure the error is already written, and its exit status comes back.
+fn load_design(
+    path: &Path,
+    file: &str,
+    format: Format,
+) -> Result<draftwire::design::Design, ExitCode> {
+    let source = read(path).map_err(|e| input_error(format, &e, None))?;
+    parse_with_overrides(file, &source)
+        .map_err(|d| input_error(format, &format!("error: {d}"), Some(&d)))
+}
+
 /// Where results go: `-o FILE`, or standard output.
 static OUTPUT: std::sync::OnceLock<Option<PathBuf>> = std::sync::OnceLock::new();
 
@@ -520,14 +532,10 @@ pub fn run() -> ExitCode {
 }
 
 fn size(path: &Path, format: Format, table: CsvTable, unit: AirUnit) -> ExitCode {
-    let source = match read(path) {
-        Ok(s) => s,
-        Err(e) => return input_error(format, &e, None),
-    };
     let file = shown_name(path);
-    let design = match parse_with_overrides(&file, &source) {
+    let design = match load_design(path, &file, format) {
         Ok(d) => d,
-        Err(d) => return input_error(format, &format!("error: {d}"), Some(&d)),
+        Err(code) => return code,
     };
     // A design that cannot be sized still gets a full report whose one
     // failing check says why (and the reason on stderr).

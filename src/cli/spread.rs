@@ -1,7 +1,7 @@
 //! `draftwire spread`: read a design, size it, run the worst case and the
 //! Monte Carlo, render, and map the outcome to an exit status.
 
-use super::{emit, read, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
+use super::{emit, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
 use draftwire::analysis::size::size_core;
 use draftwire::analysis::spread::{spread, SpreadOptions, TrialRow};
 use draftwire::render;
@@ -17,13 +17,9 @@ pub fn run(
     trials_csv: Option<&PathBuf>,
 ) -> ExitCode {
     let file = super::shown_name(path);
-    let source = match read(path) {
-        Ok(s) => s,
-        Err(e) => return super::input_error(format, &e, None),
-    };
-    let design = match super::parse_with_overrides(&file, &source) {
+    let design = match super::load_design(path, &file, format) {
         Ok(d) => d,
-        Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
+        Err(code) => return code,
     };
     if opts.trials == 0 {
         eprintln!("error: --trials: expected at least 1 trial, found 0");

@@ -1,7 +1,7 @@
 //! `draftwire transient`: read a design, size it, run a scenario in time,
 //! render, and map the outcome to an exit status.
 
-use super::{emit, read, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
+use super::{emit, Format, EXIT_DESIGN_FAIL, EXIT_INPUT, EXIT_PASS};
 use draftwire::analysis::transient::{report, Scenario};
 use draftwire::quantity::{parse_quantity, Dimension};
 use draftwire::render;
@@ -117,13 +117,9 @@ pub fn read_history(path: &Path) -> Result<Vec<(f64, f64)>, String> {
 /// Run `transient`.
 pub fn run(path: &Path, ask: Ask<'_>, format: Format) -> ExitCode {
     let file = super::shown_name(path);
-    let source = match read(path) {
-        Ok(s) => s,
-        Err(e) => return super::input_error(format, &e, None),
-    };
-    let design = match super::parse_with_overrides(&file, &source) {
+    let design = match super::load_design(path, &file, format) {
         Ok(d) => d,
-        Err(d) => return super::input_error(format, &format!("error: {d}"), Some(&d)),
+        Err(code) => return code,
     };
     // Options that the chosen run would ignore are mistakes.
     let is = |n: &str| ask.scenario == Some(n);

@@ -3,6 +3,7 @@
 
 pub mod compare;
 pub mod csv;
+pub mod fit;
 pub mod guard;
 pub mod json;
 pub mod spread;

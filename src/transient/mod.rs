@@ -251,6 +251,10 @@ impl Run {
     }
 }
 
+/// No compensating part: what a circuit with its thermistor folded into the
+/// divider carries.
+static NO_PART: Compensator = Compensator::None;
+
 /// Steps of the bisection that locates a switching time.
 const EVENT_BISECTIONS: usize = 60;
 
@@ -259,22 +263,26 @@ impl Circuit<'_> {
         2 + usize::from(self.hold_off.is_some())
     }
 
-    /// The reference node's Thevenin source with the twin at `t_twin`.
+    /// The circuit with a thermistor folded into the divider's fixed
+    /// values. It sits on the board, not in the air stream, so at a run's
+    /// fixed ambient its (self-heated) resistance is constant: solved once
+    /// here rather than at every step.
+    fn folded(&self) -> Circuit<'_> {
+        if !matches!(self.comp, Compensator::Thermistor(_)) {
+            return self.clone();
+        }
+        Circuit {
+            front: self.comp.front_at(&self.front, &self.env, 0.0),
+            comp: &NO_PART,
+            ..self.clone()
+        }
+    }
+
+    /// The reference node's Thevenin source with any twin at `t_twin`.
     fn reference_source(&self, t_twin: f64) -> (f64, f64) {
         let mut d = self.front.divider;
         if let Compensator::Twin(t) = self.comp {
             d.bottom_ohm += t.element.resistance_law().resistance_ohm(t_twin);
-        } else if let Some(s) = self.comp.state(
-            &self.front.divider,
-            self.front.reference_rail_v,
-            &self.env,
-            0.0,
-        ) {
-            // A thermistor on the board: quasi-static at its own state.
-            match self.comp.leg() {
-                Some(crate::analysis::compensation::Leg::Top) => d.top_ohm += s.resistance_ohm,
-                _ => d.bottom_ohm += s.resistance_ohm,
-            }
         }
         d.thevenin(self.front.reference_rail_v, self.x)
     }
@@ -368,6 +376,10 @@ impl Circuit<'_> {
     /// The steady state at airflow `u` (element and twin solved, the
     /// hold-off node at its steady level).
     pub fn steady_state(&self, u: f64) -> Option<State> {
+        self.folded().steady_state_folded(u)
+    }
+
+    fn steady_state_folded(&self, u: f64) -> Option<State> {
         let p = crate::solve::operating_point(self.element, &self.drive, &self.env, u).ok()?;
         let mut y = [p.temperature_k, self.env.ambient_k, 0.0, 0.0];
         if let Some(s) = self.comp.state(
@@ -397,6 +409,10 @@ impl Circuit<'_> {
     /// Integrate from `y0` at t = 0 to `t_end`, starting idle (or wherever
     /// the inputs put the output at t = 0), recording every switching time.
     pub fn run(&self, airflow: &Airflow, y0: State, t_end: f64, h_max: f64) -> Run {
+        self.folded().run_folded(airflow, y0, t_end, h_max)
+    }
+
+    fn run_folded(&self, airflow: &Airflow, y0: State, t_end: f64, h_max: f64) -> Run {
         let n = self.n();
         let tol = Tolerances {
             rtol: 1e-9,
