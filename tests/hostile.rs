@@ -340,3 +340,174 @@ proptest! {
         assert_clean("random design (text)", &run("text"));
     }
 }
+
+/// The full key of a per-key range row (rows name a key by its last
+/// segments).
+fn full_key(key: &str) -> String {
+    let head = key.split('.').next().unwrap_or("");
+    match head {
+        "regulator" => format!("supply.{key}"),
+        "transistor" | "diode" => format!("output.{key}"),
+        "cooling" | "resistance" | "lamp" => format!("element.{key}"),
+        _ => key.to_string(),
+    }
+}
+
+/// Overrides that put an example into the state where a row's key is
+/// read (another drive, load, law or table), applied before the row's own.
+fn context(key: &str) -> &'static [&'static str] {
+    match key {
+        "drive.current" => &[
+            "drive.kind=constant-current",
+            "drive.series=",
+            "drive.rail=",
+        ],
+        "output.buzzer_current" => &[
+            "output.load=buzzer",
+            "output.stage=auto",
+            "output.led_forward=",
+            "output.led_current=",
+            "output.coil_voltage=",
+            "output.coil_resistance=",
+            "output.buzzer_current=20 mA",
+        ],
+        k if k.starts_with("transistor.") => &[
+            "output.transistor.vce_max=40 V",
+            "output.transistor.ic_max=200 mA",
+            "output.transistor.power_max=500 mW",
+            "output.transistor.hfe_min=100",
+            "output.transistor.vce_sat=0.3 V",
+            "output.transistor.vbe_on=0.7 V",
+        ],
+        k if k.starts_with("diode.") => &[
+            "output.diode.reverse_max=400 V",
+            "output.diode.forward_max=1 A",
+        ],
+        "resistance.beta" => &[
+            "element.resistance.law=beta",
+            "element.resistance.tcr=",
+            "element.resistance.t0=",
+            "element.resistance.beta=3950 K",
+            "element.material=",
+        ],
+        k if k.starts_with("cooling.dissipation") || k == "cooling.time_constant" => &[
+            "element.cooling.law=datasheet",
+            "element.cooling.a=",
+            "element.cooling.b=",
+            "element.cooling.n=",
+            "element.cooling.dissipation=2 mW/K",
+            "element.cooling.dissipation_moving=4 mW/K",
+            "element.cooling.moving_airflow=1 m/s",
+        ],
+        k if k.starts_with("cooling.wire_") => &[
+            "element.cooling.law=coil",
+            "element.cooling.diameter=1 mm",
+            "element.cooling.wire_diameter=25 um",
+            "element.cooling.wire_length=60 mm",
+        ],
+        _ => &[],
+    }
+}
+
+/// A value of the row's dimension, written with a unit the reader takes.
+fn literal(dim: draftwire::quantity::Dimension, si: f64) -> String {
+    use draftwire::quantity::Dimension as D;
+    let unit = match dim {
+        D::Temperature => return format!("{} degC", si - 273.15),
+        D::Resistance => "ohm",
+        D::TemperatureDifference => "K",
+        D::Velocity => "m/s",
+        D::ThermalConductance => "W/K",
+        D::ThermalResistance => "K/W",
+        D::HeatCapacity => "J/K",
+        D::Capacitance => "F",
+        D::Length => "m",
+        D::Time => "s",
+        D::Pressure => "Pa",
+        _ => dim.si_unit(),
+    };
+    format!("{si:e} {unit}")
+}
+
+/// Every per-key range is enforced at the door: a value just beyond either
+/// end is refused with the key named (tried on each example until one
+/// reaches the key), a value inside is not refused for its range; and
+/// every row is listed in docs/design-file.md. The ranges are draftwire's
+/// own (no source); this checks that they are applied and documented.
+#[test]
+fn per_key_ranges_are_enforced_and_documented() {
+    use draftwire::design::overrides::Override;
+    use draftwire::design::ranges::KEY_RANGES;
+    let docs =
+        std::fs::read_to_string(Path::new(env!("CARGO_MANIFEST_DIR")).join("docs/design-file.md"))
+            .unwrap();
+    let examples: Vec<String> =
+        std::fs::read_dir(Path::new(env!("CARGO_MANIFEST_DIR")).join("examples"))
+            .unwrap()
+            .map(|e| e.unwrap().path())
+            .filter(|p| p.extension().is_some_and(|x| x == "toml"))
+            .map(|p| std::fs::read_to_string(p).unwrap())
+            .collect();
+    let mut unreached = Vec::new();
+    for row in KEY_RANGES {
+        assert!(
+            docs.contains(&format!("| `{}` |", row.key)),
+            "{} is not in docs/design-file.md, Per-key ranges",
+            row.key
+        );
+        let key = full_key(row.key);
+        let beyond = if row.dim == draftwire::quantity::Dimension::Temperature {
+            vec![row.hi + 10.0, row.lo - 10.0]
+        } else if row.lo > 0.0 {
+            vec![row.hi * 1.5, row.lo / 1.5]
+        } else {
+            vec![row.hi * 1.5]
+        };
+        let inside = 0.5 * (row.lo + row.hi);
+        let last = row.key.rsplit('.').next().unwrap();
+        let mut reached = false;
+        let ctx: Vec<Override> = context(row.key)
+            .iter()
+            .map(|c| Override::parse(c).unwrap())
+            .collect();
+        for source in &examples {
+            let mut refused_all = true;
+            for x in &beyond {
+                let o = Override::parse(&format!("{key}={}", literal(row.dim, *x))).unwrap();
+                let mut all = ctx.clone();
+                all.push(o);
+                match draftwire::design::parse_design_with("t.toml", source, &all) {
+                    Err(d) => {
+                        // Refused at the key, by its own range or (where
+                        // the two meet) by its dimension's.
+                        let m = d.to_string();
+                        refused_all &= m.contains(&format!("{key}:"))
+                            && (m.contains("Per-key ranges") || m.contains("Units"));
+                    }
+                    Ok(_) => refused_all = false,
+                }
+            }
+            if refused_all {
+                reached = true;
+                let o = Override::parse(&format!("{key}={}", literal(row.dim, inside))).unwrap();
+                let mut all = ctx.clone();
+                all.push(o);
+                if let Err(d) = draftwire::design::parse_design_with("t.toml", source, &all) {
+                    let m = d.to_string();
+                    assert!(
+                        !(m.contains("Per-key ranges") && m.contains(last)),
+                        "{key} inside its range refused: {m}"
+                    );
+                }
+                break;
+            }
+        }
+        if !reached {
+            unreached.push(key);
+        }
+    }
+    assert!(
+        unreached.is_empty(),
+        "rows no example reaches: {unreached:?}"
+    );
+}

@@ -6,6 +6,7 @@ pub mod diagnostic;
 pub mod element;
 pub mod model;
 pub mod overrides;
+pub mod ranges;
 pub mod raw;
 pub mod reader;
 

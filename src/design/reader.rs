@@ -67,6 +67,22 @@ impl<'a> Reader<'a> {
                 ),
             ));
         }
+        if let Some(r) = super::ranges::range_of(field, dim) {
+            if !(r.lo..=r.hi).contains(&x) {
+                return Err(self.err(
+                    Some(v.span()),
+                    field,
+                    format!(
+                        "expected {} of {} to {} ({}; docs/design-file.md, Per-key ranges), found {}",
+                        dim.name(),
+                        show_key_value(dim, r.lo),
+                        show_key_value(dim, r.hi),
+                        r.why,
+                        show_key_value(dim, x)
+                    ),
+                ));
+            }
+        }
         Ok(x)
     }
 
@@ -264,6 +280,26 @@ impl<'a> Reader<'a> {
             ));
         }
         Ok(rail)
+    }
+}
+
+/// A per-key bound or value for people: temperatures in °C, everything
+/// else with an engineering prefix.
+fn show_key_value(dim: Dimension, x: f64) -> String {
+    if dim == Dimension::Temperature {
+        format!("{} °C", crate::quantity::format_sig(x - 273.15, 4))
+    } else {
+        let text = crate::quantity::format_engineering(x, dim.si_unit(), 4);
+        // Bounds read best without trailing zeros: "100 mV", not "100.0 mV".
+        match text.split_once(' ') {
+            Some((number, unit)) if number.contains('.') => {
+                format!(
+                    "{} {unit}",
+                    number.trim_end_matches('0').trim_end_matches('.')
+                )
+            }
+            _ => text,
+        }
     }
 }
 

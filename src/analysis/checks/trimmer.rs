@@ -142,3 +142,24 @@ fn coverage(grid: &Grid) -> Check {
     }
     check.detail(detail)
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    const SERVER: &str = include_str!("../../../examples/server-cabinet-airflow.toml");
+
+    /// With every divider part `auto`, a trimmer that cannot reach is a
+    /// sizing limit, not a fixed value to change (issue 14); with a fixed
+    /// part, the advice names the fixed values.
+    #[test]
+    fn reach_advice_names_what_the_file_fixes() {
+        let sized = crate::design::parse_design("s.toml", SERVER).unwrap();
+        let advice = reach_advice(&sized);
+        assert!(advice.contains("sized"), "{advice}");
+        assert!(!advice.contains("fixes"), "{advice}");
+        let fixed = SERVER.replace("top = \"auto\"", "top = \"10 kohm\"");
+        let fixed = crate::design::parse_design("s.toml", &fixed).unwrap();
+        assert!(reach_advice(&fixed).contains("the file fixes"));
+    }
+}
