@@ -8,6 +8,7 @@ use draftwire::element::{CoolingLaw, Element, Environment, KingsLaw, LinearTcr, 
 use draftwire::physics::convection::{ForcedCorrelation, NaturalCorrelation};
 use draftwire::physics::materials::Material;
 use draftwire::physics::platinum::CallendarVanDusen;
+use draftwire::physics::tungsten::TungstenWire;
 use draftwire::solve::{airflow_by_search, airflow_for_sense, operating_point};
 
 fn main() {
@@ -126,6 +127,90 @@ fn operating_point_solve_geometry(bencher: divan::Bencher) {
             black_box(&drive),
             black_box(&env),
             black_box(2.0),
+        )
+        .unwrap()
+    });
+}
+
+/// Invented example element: a 10 µm × 20 mm tungsten wire (Forsythe &
+/// Worthing table) cooled by Collis & Williams and Morgan, radiation and
+/// its supports: the "tungsten wire" case.
+fn tungsten_wire() -> Element {
+    let cooling = GeometryCooling::new(
+        Shape::StraightWire,
+        10e-6,
+        20e-3,
+        Material::Tungsten,
+        ForcedCorrelation::CollisWilliams,
+        NaturalCorrelation::Morgan,
+        None,
+        2e-5,
+    )
+    .unwrap();
+    Element::new(
+        ResistanceLaw::Tungsten(TungstenWire::new(14.0, 293.15).unwrap()),
+        CoolingLaw::Geometry(cooling),
+        1e-5,
+        None,
+    )
+    .unwrap()
+}
+
+const TUNGSTEN_DRIVE: Drive = Drive::SeriesResistor {
+    rail_v: 5.0,
+    series_ohm: 47.0,
+};
+
+#[divan::bench]
+fn operating_point_solve_tungsten(bencher: divan::Bencher) {
+    let el = tungsten_wire();
+    let env = Environment::at(293.15);
+    bencher.bench(|| {
+        operating_point(
+            black_box(&el),
+            black_box(&TUNGSTEN_DRIVE),
+            black_box(&env),
+            black_box(1.0),
+        )
+        .unwrap()
+    });
+}
+
+#[divan::bench]
+fn trip_airflow_solve_tungsten(bencher: divan::Bencher) {
+    let el = tungsten_wire();
+    let env = Environment::at(293.15);
+    let level = operating_point(&el, &TUNGSTEN_DRIVE, &env, 1.0)
+        .unwrap()
+        .sense_v;
+    bencher.bench(|| {
+        airflow_for_sense(
+            black_box(&el),
+            black_box(&TUNGSTEN_DRIVE),
+            black_box(&env),
+            black_box(level),
+            0.8,
+        )
+        .unwrap()
+    });
+}
+
+#[divan::bench]
+fn trip_airflow_solve_geometry(bencher: divan::Bencher) {
+    let el = platinum_wire();
+    let env = Environment::at(293.15);
+    let drive = Drive::SeriesResistor {
+        rail_v: 5.0,
+        series_ohm: 30.0,
+    };
+    let level = operating_point(&el, &drive, &env, 2.0).unwrap().sense_v;
+    bencher.bench(|| {
+        airflow_for_sense(
+            black_box(&el),
+            black_box(&drive),
+            black_box(&env),
+            black_box(level),
+            1.5,
         )
         .unwrap()
     });

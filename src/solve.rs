@@ -299,7 +299,186 @@ pub fn operating_point(
             return Ok(p);
         }
     }
+    if let Some(p) = operating_point_bounded(element, drive, env, airflow_m_per_s) {
+        return p;
+    }
     operating_point_census(element, drive, env, airflow_m_per_s)
+}
+
+/// The scan's rise above ambient at grid index `k` (0 … `SCAN_INTERVALS`):
+/// logarithmic from `min_rise` to exactly `max_rise` (§5.2 of model.md).
+/// One function for the full scan and the bounded census, so both see the
+/// same grid to the last bit.
+#[inline]
+fn scan_rise(min_rise: f64, max_rise: f64, ratio: f64, k: usize) -> f64 {
+    if k == SCAN_INTERVALS {
+        max_rise
+    } else {
+        min_rise * (ratio * k as f64 / SCAN_INTERVALS as f64).exp()
+    }
+}
+
+/// One evaluated grid point of the bounded census: loss, electrical power,
+/// resistance and the residual `f = loss − power`, as the full scan
+/// computes it.
+#[derive(Clone, Copy)]
+struct GridPoint {
+    t: f64,
+    loss: f64,
+    power: f64,
+    r: f64,
+    f: f64,
+}
+
+/// Why the bounded census handed a solve back to the full scan.
+enum Handback {
+    /// A non-finite value or a loss that fell with temperature: the full
+    /// scan decides (and reports).
+    Scan,
+}
+
+/// The full scan's root set, found by visiting only the grid intervals
+/// that can hold a sign change (model.md §5.2b).
+///
+/// On a grid interval `[a, b]` the loss rises with T (checked at every
+/// pair of points visited) and the electrical power `h(R(T))` is monotone
+/// or single-peaked (R(T) is monotone for every law; `h` peaks at R = Rs
+/// for the series drive, `V²/(4Rs)`, and rises for a current). So
+/// `loss(a) − max P ≤ f ≤ loss(b) − min P` on `[a, b]`: where that band
+/// excludes zero, no grid point inside can show a sign change and the
+/// interval is skipped; otherwise it is halved down to single grid
+/// intervals, where the full scan's own test and Brent refinement apply.
+/// The roots are therefore the full scan's roots, bit for bit, at a
+/// fraction of its evaluations, and a runaway is the scan's runaway.
+/// `None` hands the solve back to the scan.
+pub fn operating_point_bounded(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+) -> Option<Result<OperatingPoint, SolveError>> {
+    let law = element.resistance_law();
+    let (lo, hi) = law.valid_range_k();
+    let ta = env.ambient_k;
+    if !(ta >= lo && ta < hi) {
+        return None;
+    }
+    let max_rise = hi - ta;
+    let min_rise = SCAN_MIN_RISE_K.min(0.5 * max_rise);
+    let ratio = (max_rise / min_rise).ln();
+    let cooling = element.cooling_law();
+    // Grid index 0 is ambient itself; index j ≥ 1 is the scan's point j − 1.
+    let eval = |j: usize| -> Option<GridPoint> {
+        let t = if j == 0 {
+            ta
+        } else {
+            ta + scan_rise(min_rise, max_rise, ratio, j - 1)
+        };
+        let r = law.resistance_ohm(t);
+        let loss = cooling.heat_loss_w(t, u, env);
+        let power = drive.power_w(r);
+        let f = loss - power;
+        f.is_finite().then_some(GridPoint {
+            t,
+            loss,
+            power,
+            r,
+            f,
+        })
+    };
+    let peak = match *drive {
+        Drive::SeriesResistor { rail_v, series_ohm } => {
+            Some((series_ohm, rail_v * rail_v / (4.0 * series_ohm)))
+        }
+        Drive::ConstantCurrent { .. } => None,
+    };
+    let first = eval(0)?;
+    let last = eval(SCAN_INTERVALS + 1)?;
+    let mut roots = RootSet::empty();
+    if first.f == 0.0 {
+        roots.push(ta, true);
+    }
+    let f = |t: f64| residual(element, drive, env, u, t);
+    let mut visit = Visit {
+        eval: &eval,
+        f: &f,
+        peak,
+        roots: &mut roots,
+        slope: &|t| residual_slope(element, drive, env, u, t),
+        first_slope: None,
+    };
+    match visit.interval(0, SCAN_INTERVALS + 1, first, last) {
+        Ok(()) => {}
+        Err(Handback::Scan) => return None,
+    }
+    let visit_first_slope = visit.first_slope;
+    let Some((t, _)) = roots.iter().next() else {
+        return Some(Err(SolveError::Runaway {
+            upper_k: hi,
+            power_w: last.power,
+            loss_w: last.loss,
+        }));
+    };
+    // The first root's slope was taken when it was classified (a root at
+    // ambient itself was not: take it here).
+    let slope = match visit_first_slope {
+        Some(s) if first.f != 0.0 => s,
+        _ => residual_slope(element, drive, env, u, t),
+    };
+    Some(Ok(point_with_slope(
+        element, drive, env, u, t, roots, slope,
+    )))
+}
+
+/// The bounded census's walk over grid intervals, left to right so that
+/// roots are recorded in rising temperature as the full scan records them.
+struct Visit<'a, E, F, S> {
+    eval: &'a E,
+    f: &'a F,
+    peak: Option<(f64, f64)>,
+    roots: &'a mut RootSet,
+    slope: &'a S,
+    /// The residual's slope at the first root refined (kept for the
+    /// operating point, so it is not computed twice).
+    first_slope: Option<f64>,
+}
+
+impl<E, F, S> Visit<'_, E, F, S>
+where
+    E: Fn(usize) -> Option<GridPoint>,
+    F: Fn(f64) -> f64,
+    S: Fn(f64) -> f64,
+{
+    fn interval(&mut self, i: usize, j: usize, a: GridPoint, b: GridPoint) -> Result<(), Handback> {
+        if b.loss < a.loss {
+            return Err(Handback::Scan);
+        }
+        if j == i + 1 {
+            // The full scan's test and refinement on one grid interval.
+            if a.f != 0.0 && (b.f == 0.0 || b.f.signum() != a.f.signum()) {
+                let root = brent(self.f, a.t, b.t).map_err(|_| Handback::Scan)?;
+                let slope = (self.slope)(root.x);
+                self.first_slope.get_or_insert(slope);
+                self.roots.push(root.x, slope > 0.0);
+            }
+            return Ok(());
+        }
+        let p_min = a.power.min(b.power);
+        let p_max = match self.peak {
+            Some((rs, p_peak)) if (a.r - rs) * (b.r - rs) <= 0.0 => p_peak,
+            _ => a.power.max(b.power),
+        };
+        // A margin far above rounding keeps the bound honest in floating
+        // point (the skipped points' computed f keeps its sign).
+        let margin = 1e-10 * (b.loss.abs() + p_max.abs());
+        if a.loss - p_max > margin || b.loss - p_min < -margin {
+            return Ok(());
+        }
+        let m = (i + j) / 2;
+        let mid = (self.eval)(m).ok_or(Handback::Scan)?;
+        self.interval(i, m, a, mid)?;
+        self.interval(m, j, mid, b)
+    }
 }
 
 /// [`operating_point`] by the full scan: every root on the range found and
@@ -342,12 +521,7 @@ pub fn operating_point_census(
     let ratio = (max_rise / min_rise).ln();
     let (mut t_prev, mut f_prev) = (ta, f_amb);
     for k in 0..=SCAN_INTERVALS {
-        let rise = if k == SCAN_INTERVALS {
-            max_rise
-        } else {
-            min_rise * (ratio * k as f64 / SCAN_INTERVALS as f64).exp()
-        };
-        let t = ta + rise;
+        let t = ta + scan_rise(min_rise, max_rise, ratio, k);
         let ft = f(t);
         if !ft.is_finite() {
             return Err(SolveError::Numerical(RootError::NotFinite { x: t }));
@@ -382,9 +556,22 @@ fn point_at(
     t: f64,
     roots: RootSet,
 ) -> OperatingPoint {
+    let slope = residual_slope(element, drive, env, u, t);
+    point_with_slope(element, drive, env, u, t, roots, slope)
+}
+
+/// [`point_at`] with the residual's slope at `t` already known.
+fn point_with_slope(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+    t: f64,
+    roots: RootSet,
+    slope: f64,
+) -> OperatingPoint {
     let law = element.resistance_law();
     let r = law.resistance_ohm(t);
-    let slope = residual_slope(element, drive, env, u, t);
     OperatingPoint {
         airflow_m_per_s: u,
         ambient_k: env.ambient_k,

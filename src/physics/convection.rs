@@ -38,6 +38,8 @@ pub enum NaturalCorrelation {
 /// spheres respectively (memory for the wording); 4 for a cylinder in cross
 /// flow.
 pub const MIXED_CONVECTION_EXPONENT: i32 = 4;
+// `nusselt_mixed` takes the fourth root as two square roots.
+const _: () = assert!(MIXED_CONVECTION_EXPONENT == 4);
 
 /// Reynolds number at which the two Collis & Williams branches intersect,
 /// 0.24 + 0.56·Re^0.45 = 0.48·Re^0.51 (computed by bisection, 45.0937).
@@ -122,13 +124,24 @@ pub enum ConvectionError {
 /// intersection [`COLLIS_WILLIAMS_BRANCH_RE`] so the result is continuous.
 /// Domain: Re ≥ 0, temperatures > 0 K; outside 0.02–140 it is extrapolated.
 pub fn nusselt_collis_williams(reynolds: f64, film_k: f64, ambient_k: f64) -> f64 {
-    let loading = (film_k / ambient_k).powf(0.17);
-    let branch = if reynolds < COLLIS_WILLIAMS_BRANCH_RE {
+    collis_williams_loading(film_k, ambient_k) * collis_williams_branch(reynolds)
+}
+
+/// The temperature-loading factor (T_m/T_a)^0.17 of Collis & Williams (1959).
+fn collis_williams_loading(film_k: f64, ambient_k: f64) -> f64 {
+    (film_k / ambient_k).powf(0.17)
+}
+
+/// The Reynolds-number branch of Collis & Williams (1959), continuous at
+/// [`COLLIS_WILLIAMS_BRANCH_RE`]; 0.24 at Re = 0.
+fn collis_williams_branch(reynolds: f64) -> f64 {
+    if reynolds == 0.0 {
+        0.24
+    } else if reynolds < COLLIS_WILLIAMS_BRANCH_RE {
         0.24 + 0.56 * reynolds.powf(0.45)
     } else {
         0.48 * reynolds.powf(0.51)
-    };
-    loading * branch
+    }
 }
 
 /// Churchill & Bernstein, J. Heat Transfer 99 (1977) 300–306:
@@ -136,6 +149,10 @@ pub fn nusselt_collis_williams(reynolds: f64, film_k: f64, ambient_k: f64) -> f6
 /// film properties, Re·Pr ≥ 0.2 (Incropera 6th ed. eq. 7.54).
 /// Domain: Re ≥ 0, Pr > 0.
 pub fn nusselt_churchill_bernstein(reynolds: f64, prandtl: f64) -> f64 {
+    if reynolds == 0.0 {
+        // The flow terms vanish: the correlation's still-air intercept.
+        return 0.3;
+    }
     let laminar = 0.62 * reynolds.sqrt() * prandtl.cbrt()
         / (1.0 + (0.4 / prandtl).powf(2.0 / 3.0)).powf(0.25);
     0.3 + laminar * (1.0 + (reynolds / 282_000.0).powf(5.0 / 8.0)).powf(0.8)
@@ -207,7 +224,9 @@ pub fn nusselt_mixed(nu_forced: f64, nu_forced_still_air: f64, nu_natural: f64) 
     let m = MIXED_CONVECTION_EXPONENT;
     let flow_part = nu_forced.powi(m) - nu_forced_still_air.powi(m);
     if flow_part > 0.0 {
-        (nu_natural.powi(m) + flow_part).powf(1.0 / f64::from(m))
+        // m = 4: the fourth root as two square roots (faster than powf,
+        // each step correctly rounded).
+        (nu_natural.powi(m) + flow_part).sqrt().sqrt()
     } else {
         nu_natural
     }
@@ -365,9 +384,11 @@ impl CylinderInCrossFlow {
                 warnings.reynolds_above_range = reynolds > COLLIS_WILLIAMS_RE_RANGE.1;
                 warnings.reynolds_below_range =
                     reynolds > 0.0 && reynolds < COLLIS_WILLIAMS_RE_RANGE.0;
+                // One loading factor serves both terms.
+                let loading = collis_williams_loading(film_k, ambient_k);
                 (
-                    nusselt_collis_williams(reynolds, film_k, ambient_k),
-                    nusselt_collis_williams(0.0, film_k, ambient_k),
+                    loading * collis_williams_branch(reynolds),
+                    loading * collis_williams_branch(0.0),
                 )
             }
             ForcedCorrelation::ChurchillBernstein => {
@@ -391,7 +412,8 @@ impl CylinderInCrossFlow {
                 nusselt_morgan_cylinder(rayleigh)
             }
         };
-        warnings.free_convection_dominates = reynolds < grashof.cbrt();
+        // Re < Gr^(1/3), compared as Re³ < Gr (both ≥ 0) to spare a cube root.
+        warnings.free_convection_dominates = reynolds * reynolds * reynolds < grashof;
 
         let nusselt = nusselt_mixed(nu_forced, nu_forced_still_air, nu_natural);
         let h = nusselt * air.thermal_conductivity_w_per_m_k / d;

@@ -128,12 +128,13 @@ fn rho_micro_ohm_cm(t_k: f64) -> f64 {
     let table = &*RESISTIVITY;
     let (lo, hi) = TABLE_RANGE_K;
     let end = t_k.clamp(lo, hi);
-    let (value, slope) = match (table.eval(end), table.derivative(end)) {
-        (Ok(v), Ok(s)) => (v, s),
-        // `end` lies in the table's range, so this arm is unreachable.
-        _ => return f64::NAN,
-    };
-    value + slope * (t_k - end)
+    // `end` lies in the table's range, so the errors are unreachable.
+    let value = table.eval(end).unwrap_or(f64::NAN);
+    if end == t_k {
+        // Inside the table: the interpolant itself (no end slope needed).
+        return value;
+    }
+    value + table.derivative(end).unwrap_or(f64::NAN) * (t_k - end)
 }
 
 fn rho_slope_micro_ohm_cm_per_k(t_k: f64) -> f64 {
