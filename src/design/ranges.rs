@@ -372,7 +372,7 @@ pub const KEY_RANGES: &[KeyRange] = &[
         "resistance.beta",
         TemperatureDifference,
         100.0,
-        20e3,
+        10e3,
         "an NTC's beta"
     ),
     row!(
