@@ -106,7 +106,7 @@ impl Dimension {
             Dimension::TemperatureDifference => (1e-6, 1e4),
             Dimension::ThermalConductance => (1e-9, 1e3),
             Dimension::ThermalResistance => (1e-6, 1e6),
-            Dimension::HeatCapacity => (1e-9, 100.0),
+            Dimension::HeatCapacity => (1e-12, 100.0),
             Dimension::Fraction => (1e-12, 1e3),
             Dimension::TemperatureCoefficient => (1e-9, 1.0),
             Dimension::Capacitance => (1e-15, 10.0),

@@ -13,7 +13,7 @@
 //! capacitance). The solve path does not allocate.
 
 use crate::drive::Drive;
-use crate::element::{Element, Environment};
+use crate::element::{CoolingLaw, Element, Environment};
 use crate::precision::{ENERGY_BALANCE_REL_TOL, ROOT_ABS_TOL, ROOT_REL_TOL, SCAN_INTERVALS};
 use crate::roots::{brent, brent_fallible, RootError};
 
@@ -413,10 +413,11 @@ pub fn operating_point_bounded(
     }
     let visit_first_slope = visit.first_slope;
     let Some((t, _)) = roots.iter().next() else {
+        // The full scan's figures, taken at the top of the range itself.
         return Some(Err(SolveError::Runaway {
             upper_k: hi,
-            power_w: last.power,
-            loss_w: last.loss,
+            power_w: drive.power_w(law.resistance_ohm(hi)),
+            loss_w: cooling.heat_loss_w(hi, u, env),
         }));
     };
     // The first root's slope was taken when it was classified (a root at
@@ -630,8 +631,8 @@ pub const INVERSION_CHECK_REL: f64 = 1e-9;
 /// is known, and the cooling law gives the airflow that carries that power
 /// away at that temperature — in closed form for a King's-law form (King's
 /// law, the data-sheet form: `G = P/(T − T_amb)`, `U = ((G − A)/B)^(1/n)`),
-/// by one 1-D root on the airflow for geometry cooling (its loss rises
-/// with airflow at a fixed temperature).
+/// and for geometry cooling by inverting the Nusselt relation at that
+/// temperature (`GeometryCooling::airflow_for_loss`).
 ///
 /// Returns `None` when the inversion does not apply or its answer is not
 /// the cold-start operating point (a fold or a bistable element): the
@@ -654,17 +655,13 @@ pub fn airflow_by_inversion(
         None
     } else if let Some(king) = cooling.kings_form() {
         king.airflow_for_conductance(power / rise)
+    } else if let CoolingLaw::Geometry(g) = cooling {
+        // Geometry: the Nusselt relation inverted at this temperature
+        // (radiation and supports off, the mixing rule and the forced
+        // correlation solved for Re, U = Re·ν/d).
+        g.airflow_for_loss(t, power, env)
     } else {
-        // Any other cooling law: the loss at this temperature rises with
-        // airflow, so one 1-D root of loss(T, U) = P on [0, U_max] (each
-        // evaluation one loss, not a whole operating point).
-        let h = |v: f64| cooling.heat_loss_w(t, v, env) - power;
-        let (h0, h1) = (h(0.0), h(MAX_AIRFLOW_M_PER_S));
-        if h0 <= 0.0 && h1 >= 0.0 {
-            brent(h, 0.0, MAX_AIRFLOW_M_PER_S).ok().map(|r| r.x)
-        } else {
-            None
-        }
+        None
     };
     match u {
         Some(u) if u <= MAX_AIRFLOW_M_PER_S => {

@@ -348,7 +348,8 @@ fn full_key(key: &str) -> String {
     match head {
         "regulator" => format!("supply.{key}"),
         "transistor" | "diode" => format!("output.{key}"),
-        "cooling" | "resistance" | "lamp" => format!("element.{key}"),
+        "cooling" | "resistance" | "lamp" | "heat_capacity" => format!("element.{key}"),
+        "overheat_rise" => format!("drive.{key}"),
         _ => key.to_string(),
     }
 }

@@ -127,7 +127,7 @@ pub const KEY_RANGES: &[KeyRange] = &[
     row!("drive.series", Resistance, 1e-3, 100e6, "a series resistor"),
     row!("drive.current", Current, 1e-6, 10.0, "a drive current"),
     row!(
-        "drive.overheat_rise",
+        "overheat_rise",
         TemperatureDifference,
         1e-3,
         3000.0,
@@ -355,11 +355,11 @@ pub const KEY_RANGES: &[KeyRange] = &[
         "a resistor's rating"
     ),
     row!(
-        "element.heat_capacity",
+        "heat_capacity",
         HeatCapacity,
-        1e-9,
-        100.0,
-        "a 5 µm × 1 mm wire (about 50 nJ/K) to a lamp with its base"
+        1e-11,
+        10.0,
+        "a 1 µm × 0.1 mm wire (about 0.2 nJ/K) to a lamp with its base"
     ),
     row!(
         "resistance.r0",

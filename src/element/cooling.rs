@@ -320,6 +320,25 @@ impl GeometryCooling {
     }
 }
 
+impl GeometryCooling {
+    /// The airflow at which the total loss at `t_k` equals `loss_w`:
+    /// radiation and support conduction taken off, the convective rest
+    /// inverted through the correlations
+    /// ([`CylinderInCrossFlow::airflow_for_convective_loss`]). `None` below
+    /// the still-air loss or outside the model's domain.
+    pub fn airflow_for_loss(&self, t_k: f64, loss_w: f64, env: &Environment) -> Option<f64> {
+        let rad = radiative_loss_w(
+            self.cylinder.surface_area_m2(),
+            self.emissivity(t_k),
+            t_k,
+            env.ambient_k,
+        );
+        let convective = loss_w - rad - self.support_w_per_k * (t_k - env.ambient_k);
+        self.cylinder
+            .airflow_for_convective_loss(convective, t_k, env.ambient_k, env.pressure_pa)
+    }
+}
+
 /// The element's heat-loss law.
 #[derive(Debug, Clone, PartialEq)]
 pub enum CoolingLaw {

@@ -190,6 +190,53 @@ pub fn nusselt_morgan_cylinder(rayleigh: f64) -> f64 {
     c * ra.powf(n)
 }
 
+/// Inverse of the Collis & Williams (1959) Reynolds-number branch: the Re at
+/// which `branch(Re)` equals `value` (≥ 0; 0 at or below the still-air
+/// intercept 0.24). Each branch is a power law, inverted in closed form, the
+/// branch chosen by the value at [`COLLIS_WILLIAMS_BRANCH_RE`].
+pub fn reynolds_for_collis_williams_branch(value: f64) -> f64 {
+    if value <= 0.24 {
+        return 0.0;
+    }
+    let at_switch = 0.48 * COLLIS_WILLIAMS_BRANCH_RE.powf(0.51);
+    if value < at_switch {
+        ((value - 0.24) / 0.56).powf(1.0 / 0.45)
+    } else {
+        (value / 0.48).powf(1.0 / 0.51)
+    }
+}
+
+/// Inverse of Churchill & Bernstein (1977): the Re at which Nu = `nusselt`
+/// at Prandtl number `prandtl` (0 at or below the intercept 0.3). With
+/// c = 0.62·Pr^⅓/[1 + (0.4/Pr)^⅔]^¼ and y = (Nu − 0.3)/c, it solves
+/// √Re·[1 + (Re/282000)^⅝]^⅘ = y (its left side rises with Re) by Newton's
+/// method in √Re from Re = y², an upper bound since the bracket factor is
+/// ≥ 1, to f64 precision (tests/solver.rs checks it against a bracketed
+/// search on 10 000 random wires).
+pub fn reynolds_for_churchill_bernstein(nusselt: f64, prandtl: f64) -> f64 {
+    if nusselt <= 0.3 {
+        return 0.0;
+    }
+    let c = 0.62 * prandtl.cbrt() / (1.0 + (0.4 / prandtl).powf(2.0 / 3.0)).powf(0.25);
+    let y = (nusselt - 0.3) / c;
+    // In s = √Re: g(s) = s·(1 + (s²/282000)^⅝)^⅘ − y.
+    let mut s = y;
+    for _ in 0..60 {
+        let x = (s * s / 282_000.0).powf(5.0 / 8.0);
+        let bracket = 1.0 + x;
+        let factor = bracket.powf(0.8);
+        let g = s * factor - y;
+        // d/ds [s·B^⅘] = B^⅘ + s·⅘·B^(−⅕)·dB/ds, dB/ds = (5/4)·x/s.
+        let dg = factor + 0.8 * factor / bracket * 1.25 * x;
+        let step = g / dg;
+        s -= step;
+        if step.abs() <= 1e-15 * s.abs() {
+            break;
+        }
+    }
+    s * s
+}
+
 /// Combined forced and natural convection:
 ///
 /// Nu^m = Nu_N^m + (Nu_F^m − Nu_F0^m),  m = [`MIXED_CONVECTION_EXPONENT`] = 4,
@@ -224,8 +271,8 @@ pub fn nusselt_mixed(nu_forced: f64, nu_forced_still_air: f64, nu_natural: f64) 
     let m = MIXED_CONVECTION_EXPONENT;
     let flow_part = nu_forced.powi(m) - nu_forced_still_air.powi(m);
     if flow_part > 0.0 {
-        // m = 4: the fourth root as two square roots (faster than powf,
-        // each step correctly rounded).
+        // m = 4: the fourth root as two square roots (faster than powf;
+        // within an ulp of it).
         (nu_natural.powi(m) + flow_part).sqrt().sqrt()
     } else {
         nu_natural
@@ -430,6 +477,62 @@ impl CylinderInCrossFlow {
             film_temperature_k: film_k,
             warnings,
         })
+    }
+}
+
+impl CylinderInCrossFlow {
+    /// The airflow (m/s, ≥ 0) at which the convective loss at surface
+    /// temperature `surface_k` equals `convective_w`: [`Self::convection`]
+    /// inverted. At a fixed temperature the film properties and the natural
+    /// term are fixed, so the needed Nusselt number gives the forced term
+    /// through the mixing rule (Nu_F⁴ = Nu⁴ − Nu_N⁴ + Nu_F0⁴), the forced
+    /// correlation inverted gives Re, and U = Re·ν/d. `None` when the loss is
+    /// below the still-air loss (no airflow carries so little) or the inputs
+    /// are out of the model's domain.
+    pub fn airflow_for_convective_loss(
+        &self,
+        convective_w: f64,
+        surface_k: f64,
+        ambient_k: f64,
+        pressure_pa: f64,
+    ) -> Option<f64> {
+        let still = self
+            .convection(0.0, surface_k, ambient_k, pressure_pa)
+            .ok()?;
+        let delta_k = surface_k - ambient_k;
+        if delta_k.is_nan()
+            || delta_k <= 0.0
+            || convective_w.is_nan()
+            || convective_w < still.heat_loss_w
+        {
+            return None;
+        }
+        let film_k = still.film_temperature_k;
+        let air = air_properties(film_k, pressure_pa).ok()?;
+        let d = self.diameter_m;
+        let nusselt = convective_w * d
+            / (air.thermal_conductivity_w_per_m_k * self.surface_area_m2() * delta_k);
+        let m = MIXED_CONVECTION_EXPONENT;
+        let nu_n = still.nusselt_natural;
+        let reynolds = match self.forced {
+            ForcedCorrelation::CollisWilliams => {
+                let loading = collis_williams_loading(film_k, ambient_k);
+                let nu_f0 = loading * collis_williams_branch(0.0);
+                let nu_f = (nusselt.powi(m) - nu_n.powi(m) + nu_f0.powi(m))
+                    .sqrt()
+                    .sqrt();
+                reynolds_for_collis_williams_branch(nu_f / loading)
+            }
+            ForcedCorrelation::ChurchillBernstein => {
+                let nu_f0 = nusselt_churchill_bernstein(0.0, air.prandtl);
+                let nu_f = (nusselt.powi(m) - nu_n.powi(m) + nu_f0.powi(m))
+                    .sqrt()
+                    .sqrt();
+                reynolds_for_churchill_bernstein(nu_f, air.prandtl)
+            }
+        };
+        let u = reynolds * air.kinematic_viscosity_m2_per_s / d;
+        u.is_finite().then_some(u)
     }
 }
 
