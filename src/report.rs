@@ -82,8 +82,11 @@ pub struct TripSummary {
 /// One line of the bill of values.
 #[derive(Debug, Clone, PartialEq, Serialize, Default)]
 pub struct ValueRow {
-    /// Designator (draftwire's scheme, see docs/cli.md).
+    /// Designator: the trade's class letters numbered along the signal
+    /// path (docs/cli.md, Designators).
     pub designator: String,
+    /// What the part does, in a few words.
+    pub function: String,
     /// Generic part class.
     pub part: String,
     /// Chosen value in ohm, for resistors and trimmers.
@@ -351,7 +354,7 @@ pub struct EquivalentKing {
 
 /// Version of the JSON report's layout; raised when a field changes
 /// meaning or is removed.
-pub const SCHEMA_VERSION: u32 = 2;
+pub const SCHEMA_VERSION: u32 = 3;
 
 /// The whole report.
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -401,6 +404,34 @@ pub struct Report {
     pub cautions: Vec<String>,
     /// Defaults applied and modelling assumptions.
     pub assumptions: Vec<String>,
+    /// The named nodes of the circuit, each with what it is and the pins
+    /// on it.
+    pub nodes: Vec<NodeRow>,
+    /// Every pin of every part and the node it goes to.
+    pub connections: Vec<Connection>,
+}
+
+/// One pin of one part and the node it connects to.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Connection {
+    /// The part's designator, as in the bill.
+    pub designator: String,
+    /// The pin, by function (`1`/`2` for two-terminal parts, `wiper`,
+    /// `base`, `in+`, `cathode`, …).
+    pub pin: String,
+    /// The node's name (docs/cli.md, Connections).
+    pub node: String,
+}
+
+/// A named node of the circuit.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct NodeRow {
+    /// The node's name.
+    pub name: String,
+    /// What it is, in words.
+    pub what: String,
+    /// The pins on it, as `designator.pin`.
+    pub parts: Vec<String>,
 }
 
 impl Report {

@@ -250,7 +250,7 @@ fn hold_off_uses_the_full_range_output_low_level() {
     let ohm = |d: &str| {
         r.values
             .iter()
-            .find(|v| v.designator == d)
+            .find(|v| v.function == role_function(d))
             .unwrap()
             .value_ohm
             .unwrap()
@@ -277,7 +277,7 @@ fn sink_check_includes_feedback_current_and_margin() {
     let ohm = |d: &str| {
         r.values
             .iter()
-            .find(|v| v.designator == d)
+            .find(|v| v.function == role_function(d))
             .unwrap()
             .value_ohm
             .unwrap()
@@ -288,7 +288,7 @@ fn sink_check_includes_feedback_current_and_margin() {
     let ri = r
         .values
         .iter()
-        .find(|v| v.designator == "RI1")
+        .find(|v| v.function == role_function("RI1"))
         .and_then(|v| v.value_ohm)
         .unwrap_or(0.0);
     let led = (5.2 - 1.8 - 0.7) / ohm("RL1");
@@ -422,7 +422,8 @@ time_constant = "10 s"
     let rs1 = r
         .checks
         .iter()
-        .find(|c| c.id == "power-rating-rs1")
+        // The series resistor is R1, the first resistor along the signal path.
+        .find(|c| c.id == "power-rating-r1")
         .unwrap();
     assert!(rs1.condition.contains("hot state"), "{}", rs1.condition);
     let got = rs1.value.unwrap();
@@ -493,4 +494,12 @@ fn mismatched_material_and_empty_candidates_are_rejected() {
         .unwrap_err()
         .to_string();
     assert!(err.contains("at least one [[candidate]]"), "{err}");
+}
+
+/// The bill row's function for a sizing role (designators depend on which
+/// parts a design has; the function column does not).
+fn role_function(internal: &str) -> &'static str {
+    draftwire::analysis::wiring::Role::from_internal(internal)
+        .unwrap_or_else(|| panic!("no role {internal}"))
+        .function()
 }

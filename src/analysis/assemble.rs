@@ -125,7 +125,7 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
 /// The core values: drive, divider, trimmer, feedback, input resistor, pull-up.
 pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
     let es = design.e_series.name();
-    let mut v = Vec::new();
+    let mut v = vec![element_row(design, core)];
     match (core.drive, design.drive) {
         (Drive::SeriesResistor { series_ohm, rail_v }, DriveSpec::SeriesResistor { rail, .. }) => v
             .push(ValueRow::resistor(
@@ -260,6 +260,40 @@ pub fn core_values(design: &Design, core: &SizedCore) -> Vec<ValueRow> {
         ));
     }
     v
+}
+
+/// The sensing element's row: given by the file, not sized; its
+/// resistance at the nominal ambient and its laws.
+fn element_row(design: &Design, core: &SizedCore) -> ValueRow {
+    let law = core.element.resistance_law();
+    let ta = design.ambient.nominal_k;
+    let tol = design.element_tolerance;
+    ValueRow {
+        designator: "ELEMENT".into(),
+        part: "self-heated element".into(),
+        value_ohm: Some(law.resistance_ohm(ta)),
+        e_series: "given".into(),
+        text: format!(
+            "{} at {:.1} °C{}",
+            format_engineering(law.resistance_ohm(ta), "Ω", 3),
+            to_c(ta),
+            if tol > 0.0 {
+                format!(" (±{} %)", crate::quantity::format_sig(100.0 * tol, 3))
+            } else {
+                String::new()
+            }
+        ),
+        rating: format!(
+            "{:.0} °C in still air at the nominal ambient",
+            to_c(core.still_air.temperature_k)
+        ),
+        reason: format!(
+            "{}; cooled as {}; mount it in the airflow to be watched",
+            law.name(),
+            core.element.cooling_law().name()
+        ),
+        ..ValueRow::default()
+    }
 }
 
 /// The compensating parts' rows: the twin, or the thermistor and its

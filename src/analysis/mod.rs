@@ -15,6 +15,7 @@ pub mod stage;
 pub mod sweep;
 pub mod switching;
 pub mod transient;
+pub mod wiring;
 
 use crate::design::Design;
 use crate::report::{Check, Report};
@@ -22,6 +23,23 @@ pub use size::SizeError;
 
 /// Size and check a design: the whole `size` job.
 pub fn size(design: &Design) -> Result<Report, SizeError> {
+    size_full(design).map(|s| s.report)
+}
+
+/// A sized design with everything later jobs (the netlist, the schematic)
+/// need beside its report: the design with its compensation resolved and
+/// the sized core.
+pub struct Sized {
+    /// The design as sized (`auto` compensation resolved).
+    pub design: Design,
+    /// The sized core (element, drive, front end, trimmer setting, …).
+    pub core: size::SizedCore,
+    /// The report.
+    pub report: Report,
+}
+
+/// [`size`], keeping the sized core.
+pub fn size_full(design: &Design) -> Result<Sized, SizeError> {
     let choice = choice::resolve(design);
     let design = &choice.design;
     let core = size::size_core(design)?;
@@ -33,6 +51,10 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
     checks.extend(checks::compensation::checks(design, &core, &grid));
     let hold = transient::choose_hold_off(design, &core);
     checks.push(checks::power_on::check(design, &core, &hold));
+    let hold_off_to_rail = match &hold {
+        transient::HoldOffChoice::Fitted(h) => Some(h.to_rail),
+        _ => None,
+    };
     if let transient::HoldOffChoice::Fitted(h) = hold {
         values.push(assemble::hold_off_row(design, &core, &h));
     }
@@ -87,7 +109,7 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
                 at_temperature_c: assemble::to_c(core.at_trip.temperature_k),
             }),
     };
-    Ok(Report {
+    let mut report = Report {
         schema_version: crate::report::SCHEMA_VERSION,
         tool_version: env!("CARGO_PKG_VERSION").to_string(),
         design_file: design.design_file.clone(),
@@ -114,9 +136,15 @@ pub fn size(design: &Design) -> Result<Report, SizeError> {
         warnings,
         cautions,
         assumptions: design.assumptions.clone(),
-    }
-    .guarded()
-    .with_verdict())
+        nodes: Vec::new(),
+        connections: Vec::new(),
+    };
+    wiring::apply(&mut report, design, &core, hold_off_to_rail);
+    Ok(Sized {
+        design: design.clone(),
+        core,
+        report: report.guarded().with_verdict(),
+    })
 }
 
 /// A warning when the sized divider draws far from the current the file
@@ -271,5 +299,7 @@ pub fn unsized_report(design: &Design, error: &SizeError) -> Report {
         warnings: Vec::new(),
         cautions: assemble::standing_cautions(),
         assumptions: design.assumptions.clone(),
+        nodes: Vec::new(),
+        connections: Vec::new(),
     }
 }

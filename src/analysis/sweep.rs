@@ -326,26 +326,24 @@ fn hold_overrides(report: &crate::report::Report) -> Vec<Override> {
         value: val,
         remove: false,
     };
-    let ohm = |d: &str| {
-        report
-            .values
-            .iter()
-            .find(|v| v.designator == d)
-            .and_then(|v| v.value_ohm)
-    };
-    for (d, key) in [
-        ("RS1", "drive.series"),
-        ("RR1", "detector.top"),
-        ("RV1", "detector.trimmer"),
-        ("RR2", "detector.bottom"),
-        ("RF1", "detector.feedback"),
-        ("RI1", "detector.input_resistor"),
-        ("RP1", "comparator.pullup"),
-        ("RC1", "compensation.twin_resistance"),
-        ("RT1", "compensation.thermistor_r25"),
-        ("RR3", "compensation.linearising"),
+    // Parts are found by their role (the bill's function column): their
+    // designators depend on which parts the design has.
+    use super::wiring::Role;
+    let part = |r: Role| report.values.iter().find(|v| v.function == r.function());
+    let ohm = |r: Role| part(r).and_then(|v| v.value_ohm);
+    for (r, key) in [
+        (Role::SeriesResistor, "drive.series"),
+        (Role::DividerTop, "detector.top"),
+        (Role::Trimmer, "detector.trimmer"),
+        (Role::DividerBottom, "detector.bottom"),
+        (Role::Feedback, "detector.feedback"),
+        (Role::InputResistor, "detector.input_resistor"),
+        (Role::PullUp, "comparator.pullup"),
+        (Role::Twin, "compensation.twin_resistance"),
+        (Role::Thermistor, "compensation.thermistor_r25"),
+        (Role::Linearising, "compensation.linearising"),
     ] {
-        if let Some(v) = ohm(d) {
+        if let Some(v) = ohm(r) {
             out.push(o(key, format!("{v} ohm")));
         }
     }
@@ -353,15 +351,10 @@ fn hold_overrides(report: &crate::report::Report) -> Vec<Override> {
     if report.compensation.kind != "none" {
         out.push(o("compensation.kind", report.compensation.kind.clone()));
     }
-    if let Some(a) = report
-        .values
-        .iter()
-        .find(|v| v.designator == "IS1")
-        .and_then(|v| v.value_a)
-    {
+    if let Some(a) = part(Role::CurrentSource).and_then(|v| v.value_a) {
         out.push(o("drive.current", format!("{a} A")));
     }
-    if ohm("RS1").is_some() || out.iter().any(|x| x.key == "drive.current") {
+    if ohm(Role::SeriesResistor).is_some() || out.iter().any(|x| x.key == "drive.current") {
         for k in ["drive.overheat_rise", "drive.overheat_ratio"] {
             out.push(Override {
                 key: k.into(),

@@ -253,6 +253,8 @@ enum CsvTable {
     Checks,
     /// The trip-point drift.
     Drift,
+    /// The connection list.
+    Connections,
 }
 
 /// Exit status: every check passed.
@@ -565,6 +567,7 @@ fn size(path: &Path, format: Format, table: CsvTable, unit: AirUnit) -> ExitCode
                 CsvTable::OperatingPoints => render::csv::Table::OperatingPoints,
                 CsvTable::Checks => render::csv::Table::Checks,
                 CsvTable::Drift => render::csv::Table::Drift,
+                CsvTable::Connections => render::csv::Table::Connections,
             },
         ),
         Format::Svg => match draftwire::analysis::choice::size_resolved(&design) {

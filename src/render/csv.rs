@@ -13,6 +13,8 @@ pub enum Table {
     Checks,
     /// The drift rows.
     Drift,
+    /// The connection list: every pin of every part and its node.
+    Connections,
 }
 
 /// Quote a field when it holds a comma, quote or line break (RFC 4180 §2).
@@ -47,6 +49,7 @@ pub fn render(report: &Report, table: Table) -> String {
                 &mut out,
                 &[
                     "designator",
+                    "function",
                     "part",
                     "value_ohm",
                     "value_a",
@@ -67,6 +70,7 @@ pub fn render(report: &Report, table: Table) -> String {
                     &mut out,
                     &[
                         v.designator.clone(),
+                        v.function.clone(),
                         v.part.clone(),
                         opt(v.value_ohm),
                         opt(v.value_a),
@@ -148,6 +152,15 @@ pub fn render(report: &Report, table: Table) -> String {
                         c.condition.clone(),
                         c.detail.clone(),
                     ],
+                );
+            }
+        }
+        Table::Connections => {
+            line(&mut out, &["designator", "pin", "node"].map(String::from));
+            for c in &report.connections {
+                line(
+                    &mut out,
+                    &[c.designator.clone(), c.pin.clone(), c.node.clone()],
                 );
             }
         }

@@ -400,7 +400,7 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
     out.push_str(&wrap(&air.prose(&tr.hysteresis_note), "  ", "  ", width));
 
     heading(&mut out, "Bill of values");
-    let mut t = Table::new(&["ref", "part", "value", "exact", "rating"]);
+    let mut t = Table::new(&["ref", "function", "part", "value", "exact", "rating"]);
     for v in &r.values {
         let exact = match (v.exact, v.value_ohm, v.value_a, v.value_f) {
             (Some(x), Some(_), _, _) => eng(x, "Ω"),
@@ -425,6 +425,7 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
         t.push_with_note(
             vec![
                 v.designator.clone(),
+                v.function.clone(),
                 v.part.clone(),
                 format!("{}{}", v.text, series),
                 exact,
@@ -433,7 +434,16 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
             air.prose(&v.reason),
         );
     }
-    t.render(&mut out, "  ", "lllll", width);
+    t.render(&mut out, "  ", "llllll", width);
+
+    if !r.nodes.is_empty() {
+        heading(&mut out, "Connections");
+        let mut t = Table::new(&["node", "what it is", "pins on it"]);
+        for n in &r.nodes {
+            t.push(vec![n.name.clone(), n.what.clone(), n.parts.join(", ")]);
+        }
+        t.render(&mut out, "  ", "lll", width);
+    }
 
     if !r.drift.is_empty() {
         heading(&mut out, "Trip-point drift");
