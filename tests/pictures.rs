@@ -113,3 +113,39 @@ fn spread_and_sweep_draw_their_series() {
         "{ink} {found:?}"
     );
 }
+
+/// Every example's schematic (`netlist --svg`) rasterises to a non-blank
+/// 800 px wide picture with the symbols' ink and the nets' colour, and
+/// names every part of the bill in a text element (the renderer here draws
+/// no text, so names are checked in the SVG source; common practice).
+#[test]
+fn every_example_draws_its_schematic() {
+    let dir = Path::new(env!("CARGO_MANIFEST_DIR")).join("examples");
+    for e in std::fs::read_dir(&dir).unwrap() {
+        let p = e.unwrap().path();
+        if p.extension().is_none_or(|x| x != "toml") {
+            continue;
+        }
+        let name = p.file_stem().unwrap().to_string_lossy().to_string();
+        let svg = svg_of(&["netlist", "--svg", p.to_str().unwrap()]);
+        let tree = Tree::from_str(&svg, &Options::default()).expect("a valid SVG");
+        assert_eq!(tree.size().width(), 800.0, "{name}");
+        // The net dots are NET blue (#1f5fa8).
+        let (ink, found) = raster(
+            &svg,
+            &[(0x1f, 0x5f, 0xa8)],
+            dump(&format!("{name}-schematic")).as_deref(),
+        );
+        assert!(ink > 5_000, "{name}: nearly blank ({ink} px)");
+        assert!(found[0] > 100, "{name}: no net dots ({} px)", found[0]);
+        let json = svg_of(&["size", "--format", "json", p.to_str().unwrap()]);
+        let v: serde_json::Value = serde_json::from_str(&json).unwrap();
+        for row in v["values"].as_array().unwrap() {
+            let d = row["designator"].as_str().unwrap();
+            assert!(
+                svg.contains(&format!(">{d}</text>")),
+                "{name}: {d} not named in the schematic"
+            );
+        }
+    }
+}

@@ -140,6 +140,12 @@ impl Role {
         ORDER.iter().copied().find(|r| r.internal_id() == id)
     }
 
+    /// The role whose [`Role::function`] is `function` (how later jobs find
+    /// a part of the bill, whatever its number).
+    pub fn from_function(function: &str) -> Option<Role> {
+        ORDER.iter().copied().find(|r| r.function() == function)
+    }
+
     /// The trade class letter(s).
     pub fn class(self) -> &'static str {
         match self {

@@ -4,6 +4,7 @@
 
 mod compare;
 mod fit;
+mod netlist;
 mod spread;
 mod sweep;
 mod transient;
@@ -156,6 +157,23 @@ enum Command {
         /// Output format (csv: the residuals).
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
+    },
+    /// Write the sized circuit as a SPICE netlist (ngspice) or an SVG schematic.
+    Netlist {
+        /// The design file (TOML).
+        design: PathBuf,
+        /// Write a SPICE netlist (the default).
+        #[arg(long, conflicts_with = "svg")]
+        spice: bool,
+        /// Write an SVG schematic instead.
+        #[arg(long)]
+        svg: bool,
+        /// DC value of the airflow source VAIRFLOW, e.g. "0.5 m/s" (default: the trip airflow).
+        #[arg(long)]
+        airflow: Option<String>,
+        /// Add a .control block that runs the analyses (otherwise they are comments).
+        #[arg(long, conflicts_with = "svg")]
+        analyses: bool,
     },
     /// Write a commented starter design (example values) that `size` accepts.
     New {
@@ -512,6 +530,20 @@ pub fn run() -> ExitCode {
                 samples: samples.as_ref(),
             },
             format,
+        ),
+        Command::Netlist {
+            design,
+            spice: _,
+            svg,
+            airflow,
+            analyses,
+        } => netlist::run(
+            &design,
+            &netlist::Ask {
+                svg,
+                airflow,
+                analyses,
+            },
         ),
         Command::Fit {
             readings,

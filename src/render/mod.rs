@@ -6,6 +6,8 @@ pub mod csv;
 pub mod fit;
 pub mod guard;
 pub mod json;
+pub mod schematic;
+pub mod spice;
 pub mod spread;
 pub mod svg;
 pub mod sweep;

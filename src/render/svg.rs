@@ -56,14 +56,26 @@ pub fn transfer(p: &TransferPlot) -> String {
     let mut s = String::new();
     let r = draw_transfer(p, &mut s);
     match r {
-        Ok(()) => s,
+        Ok(()) => with_schematic_pointer(s),
         Err(e) => failed(e),
     }
 }
 
+/// A line under the transfer curve pointing to the schematic of the same
+/// circuit (`draftwire netlist DESIGN --svg`).
+fn with_schematic_pointer(svg: String) -> String {
+    let Some(end) = svg.rfind("</svg>") else {
+        return svg;
+    };
+    let note = "<text x=\"12\" y=\"774\" font-family=\"sans-serif\" font-size=\"12\" fill=\"#444444\">The circuit: draftwire netlist DESIGN.toml --svg draws its schematic (--spice writes its netlist).</text>\n";
+    format!("{}{note}{}", &svg[..end], &svg[end..])
+}
+
 fn draw_transfer(p: &TransferPlot, out: &mut String) -> Result<(), Box<dyn std::error::Error>> {
-    let root = SVGBackend::with_string(out, (WIDTH, 760)).into_drawing_area();
+    let root = SVGBackend::with_string(out, (WIDTH, 780)).into_drawing_area();
     root.fill(&WHITE)?;
+    // The last 20 px hold the pointer to the schematic.
+    let (root, _footer) = root.split_vertically(760);
     let (top, bottom) = root.split_vertically(420);
     let x_max = p.airflow_m_per_s.last().copied().unwrap_or(1.0);
     let (y0, y1) = range(
