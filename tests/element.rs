@@ -398,3 +398,39 @@ fn duct_example_reports_range_warnings_api() {
     assert!(w.iter().any(|s| s.contains("above the range")), "{w:?}");
     assert!(d.element.range_warnings(C0 + 60.0, 2.0, &env).is_empty());
 }
+
+/// Without a `natural` key, a wire under 0.1 mm gets Morgan's bands (they
+/// reach its very low Rayleigh numbers; Churchill & Chu is stated for
+/// Ra ≥ 1e-5) and a thicker one Churchill & Chu, each said in the
+/// assumptions (issue 11; draftwire's 0.1 mm threshold, no source).
+#[test]
+fn fine_wires_default_to_morgans_natural_convection() {
+    use draftwire::design::overrides::Override;
+    let path =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/duct-platinum-wire.toml");
+    let text = std::fs::read_to_string(path).unwrap();
+    let with = |sets: &[&str]| {
+        let o: Vec<Override> = sets.iter().map(|s| Override::parse(s).unwrap()).collect();
+        draftwire::design::parse_design_with("duct.toml", &text, &o).unwrap()
+    };
+    let fine = with(&["element.cooling.natural="]);
+    assert!(
+        fine.assumptions
+            .iter()
+            .any(|a| a.contains("natural not given: Morgan (1975)")),
+        "{:?}",
+        fine.assumptions
+    );
+    let thick = with(&[
+        "element.cooling.natural=",
+        "element.cooling.diameter=0.2 mm",
+    ]);
+    assert!(
+        thick
+            .assumptions
+            .iter()
+            .any(|a| a.contains("natural not given: Churchill & Chu (1975)")),
+        "{:?}",
+        thick.assumptions
+    );
+}

@@ -581,8 +581,10 @@ fn decoupling_rows(design: &Design) -> Vec<ValueRow> {
                 rail.name(),
                 if rail == Rail::Input && design.supply.regulator.is_some() {
                     "U2's input (its data sheet may ask for more)"
-                } else {
+                } else if rail == design.comparator.rail {
                     "U1's supply pin"
+                } else {
+                    "the parts it feeds"
                 }
             ),
         );

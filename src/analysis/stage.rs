@@ -274,7 +274,8 @@ pub(crate) fn plan(design: &Design, stage: StageKind) -> Plan {
         }
         _ => {
             // Direct: a load path from a rail above the pull-up's level
-            // conducts and lifts the node; an LED path below its forward
+            // conducts and lifts the node (a relay coil, a buzzer, an LED
+            // above its forward voltage); an LED path below its forward
             // voltage conducts only leakage, neglected.
             if let Some(o) = out {
                 let path = match (o.load.clone(), p.led) {
@@ -282,6 +283,12 @@ pub(crate) fn plan(design: &Design, stage: StageKind) -> Plan {
                         Some((vload.0 - forward_v, rl))
                     }
                     (Load::Relay { coil_ohm, .. }, _) => Some((vload.0, coil_ohm)),
+                    // A buzzer as the resistance that draws its rated
+                    // current at the nominal load rail (as the netlist
+                    // models it): it lifts the node as a relay coil does.
+                    (Load::Buzzer { current_a }, _) if current_a > 0.0 => {
+                        Some((vload.0, vload.0 / current_a))
+                    }
                     _ => None,
                 };
                 if let Some((v, r)) = path.filter(|(v, _)| *v > vcc.0) {

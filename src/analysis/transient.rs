@@ -516,7 +516,7 @@ pub fn report(
         _ => None,
     };
     let with_cap = if fitted.is_some() {
-        "; with the design's hold-off capacitor CH1 in place"
+        "; with the design's hold-off capacitor C1 in place"
     } else {
         ""
     };

@@ -593,7 +593,12 @@ pub fn apply(
     report.nodes = nodes
         .into_iter()
         .map(|name| NodeRow {
-            what: node_what(&name).to_string(),
+            what: match report.connections.iter().filter(|c| c.node == name).count() {
+                // Only the comparator's open output, with nothing to drive
+                // and no feedback: a test point.
+                1 => format!("{} (nothing else on it: a test point)", node_what(&name)),
+                _ => node_what(&name).to_string(),
+            },
             parts: report
                 .connections
                 .iter()

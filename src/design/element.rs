@@ -43,6 +43,11 @@ use crate::physics::thermistor::{BetaThermistor, SteinhartHart, BETA_RANGE_K};
 use crate::physics::tungsten::TungstenWire;
 use crate::quantity::Dimension;
 
+/// Diameter under which geometry cooling defaults to Morgan's natural
+/// convection bands (issue 11: wires under 0.1 mm; draftwire's threshold,
+/// no source).
+pub const FINE_WIRE_DIAMETER_M: f64 = 1e-4;
+
 const RESISTANCE_LAWS: [&str; 6] = [
     "linear",
     "platinum",
@@ -927,6 +932,13 @@ fn cooling(
                     "morgan" => NaturalCorrelation::Morgan,
                     _ => NaturalCorrelation::ChurchillChu,
                 },
+                // Morgan's bands for fine wires: Churchill & Chu is stated for
+                // Ra ≥ 1e-5 and gives 8–35 % more still-air Nusselt number
+                // than Morgan at 100–5 µm (docs/model.md §12, computed).
+                None if d < FINE_WIRE_DIAMETER_M => {
+                    rd.assumptions.push(format!("{pre}.natural not given: Morgan (1975) natural convection, the bands that reach the very low Rayleigh numbers of a wire under 0.1 mm"));
+                    NaturalCorrelation::Morgan
+                }
                 None => {
                     rd.assumptions.push(format!("{pre}.natural not given: Churchill & Chu (1975) natural convection (smooth in Ra, so smooth derivatives)"));
                     NaturalCorrelation::ChurchillChu
@@ -1041,7 +1053,8 @@ fn lamp(rd: &mut Reader<'_>, l: &raw::RawLamp, p: &str) -> R<LampParts> {
         fil.length_m,
         Material::Tungsten,
         ForcedCorrelation::ChurchillBernstein,
-        NaturalCorrelation::ChurchillChu,
+        // A filament is far under 0.1 mm: Morgan's bands (see the wire law).
+        NaturalCorrelation::Morgan,
         None,
         0.0,
     )

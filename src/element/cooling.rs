@@ -507,7 +507,7 @@ impl CoolingLaw {
             ForcedCorrelation::ChurchillBernstein => "Churchill & Bernstein (Re·Pr ≥ 0.2)",
         };
         let natural = match g.cylinder.natural() {
-            NaturalCorrelation::ChurchillChu => "Churchill & Chu (Ra ≤ 1e12)",
+            NaturalCorrelation::ChurchillChu => "Churchill & Chu (1e-5 ≤ Ra ≤ 1e12)",
             NaturalCorrelation::Morgan => "Morgan (1e-10 < Ra < 1e12)",
         };
         let at = format!("at {:.1} °C and {airflow_m_per_s:.3} m/s", t_k - 273.15);

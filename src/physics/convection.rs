@@ -59,6 +59,12 @@ const CHURCHILL_BERNSTEIN_MAX_RE: f64 = 1e7;
 const MORGAN_RA_RANGE: (f64, f64) = (1e-10, 1e12);
 /// Churchill & Chu (1975) horizontal cylinder: Ra ≲ 1e12 (Incropera eq. 9.34).
 const CHURCHILL_CHU_MAX_RA: f64 = 1e12;
+/// Churchill & Chu (1975) recommend their horizontal-cylinder correlation
+/// for Ra ≥ 1e-5 (as cited by the documentation of the `ht` heat-transfer
+/// library's Churchill–Chu function, which states it checked the original;
+/// secondary, the original not read here). Fine wires in still air sit
+/// below it (a 5 µm wire at 100 K: Ra ≈ 6e-7, computed).
+pub const CHURCHILL_CHU_MIN_RA: f64 = 1e-5;
 
 /// Morgan (1975) bands (lower Ra bound, C, n) for Nu = C·Ra^n, as tabulated
 /// in Incropera 6th ed. Table 9.1 and checked against a second public
@@ -290,7 +296,7 @@ pub struct RangeWarnings {
     /// where the forced term contributes nothing.
     pub reynolds_below_range: bool,
     /// 0 < Ra outside the natural correlation's range (Morgan: 1e-10–1e12;
-    /// Churchill & Chu: above 1e12). Not raised at Ra = 0 (T = T_a).
+    /// Churchill & Chu: 1e-5–1e12). Not raised at Ra = 0 (T = T_a).
     pub rayleigh_out_of_range: bool,
     /// Free convection dominates by the Collis & Williams (1959) criterion
     /// Re < Gr^(1/3).
@@ -450,7 +456,8 @@ impl CylinderInCrossFlow {
         };
         let nu_natural = match self.natural {
             NaturalCorrelation::ChurchillChu => {
-                warnings.rayleigh_out_of_range = rayleigh > CHURCHILL_CHU_MAX_RA;
+                warnings.rayleigh_out_of_range = rayleigh > 0.0
+                    && !(CHURCHILL_CHU_MIN_RA..=CHURCHILL_CHU_MAX_RA).contains(&rayleigh);
                 nusselt_churchill_chu_cylinder(rayleigh, prandtl)
             }
             NaturalCorrelation::Morgan => {
@@ -921,5 +928,42 @@ mod tests {
                 prop_assert!(s.nusselt >= s.nusselt_natural && s.nusselt_natural > 0.0);
             }
         }
+    }
+
+    /// Churchill & Chu below its stated lower limit Ra = 1e-5 (Churchill &
+    /// Chu 1975, as cited by the `ht` library) raises the range flag; a
+    /// 5 µm wire 100 K above 20 °C air is there (Ra ≈ 6e-7, computed from
+    /// the air properties: g·β·ΔT·d³/(ν·α)), a 0.5 mm wire is not; Morgan's
+    /// bands reach 1e-10 and raise nothing for the fine wire.
+    #[test]
+    fn churchill_chu_below_its_rayleigh_limit_is_flagged() {
+        let at = |d: f64, natural| {
+            CylinderInCrossFlow::new(d, 10e-3, ForcedCorrelation::CollisWilliams, natural)
+                .unwrap()
+                .convection(0.0, 393.15, 293.15, STANDARD_PRESSURE_PA)
+                .unwrap()
+        };
+        let fine = at(5e-6, NaturalCorrelation::ChurchillChu);
+        assert!(
+            fine.rayleigh < 1e-6 && fine.rayleigh > 1e-7,
+            "{}",
+            fine.rayleigh
+        );
+        assert!(fine.warnings.rayleigh_out_of_range);
+        assert!(
+            !at(5e-4, NaturalCorrelation::ChurchillChu)
+                .warnings
+                .rayleigh_out_of_range
+        );
+        assert!(
+            !at(5e-6, NaturalCorrelation::Morgan)
+                .warnings
+                .rayleigh_out_of_range
+        );
+        // Churchill & Chu over Morgan at the fine wire: 34 % (both
+        // correlations evaluated by hand in Python at Ra = 6.3e-7, Pr = 0.70).
+        let excess =
+            fine.nusselt_natural / at(5e-6, NaturalCorrelation::Morgan).nusselt_natural - 1.0;
+        assert!((0.30..0.40).contains(&excess), "{excess}");
     }
 }

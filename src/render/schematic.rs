@@ -136,8 +136,9 @@ fn pin_layout(role: Role) -> Vec<(&'static str, Side, f64, f64)> {
     }
 }
 
-/// The symbol's body, drawn about (0, 0).
-fn body(role: Role) -> String {
+/// The symbol's body, drawn about (0, 0); `pnp` turns the transistor's
+/// emitter arrow inward.
+fn body(role: Role, pnp: bool) -> String {
     let line = |x1: f64, y1: f64, x2: f64, y2: f64| {
         format!("<line x1=\"{x1}\" y1=\"{y1}\" x2=\"{x2}\" y2=\"{y2}\"/>")
     };
@@ -161,13 +162,22 @@ fn body(role: Role) -> String {
             line(0.0, -13.0, 0.0, -12.5),
             line(0.0, 12.5, 0.0, 13.0)
         ),
-        Role::Transistor => format!(
-            "<circle cx=\"0\" cy=\"0\" r=\"18\"/>{}{}{}{}",
-            line(-18.0, 0.0, -6.0, 0.0),
-            line(-6.0, -10.0, -6.0, 10.0),
-            line(-6.0, -5.0, 8.0, -20.0),
-            line(-6.0, 5.0, 8.0, 20.0)
-        ),
+        Role::Transistor => {
+            // The emitter's arrow: outward (toward the emitter lead) for an
+            // NPN, inward for a PNP (IEC 60617).
+            let arrow = if pnp {
+                format!("<path d=\"M -2 8 l 7 1 l -4 5 z\" fill=\"{INK}\"/>")
+            } else {
+                format!("<path d=\"M 6 18 l -7 -1 l 4 -5 z\" fill=\"{INK}\"/>")
+            };
+            format!(
+                "<circle cx=\"0\" cy=\"0\" r=\"18\"/>{}{}{}{}{arrow}",
+                line(-18.0, 0.0, -6.0, 0.0),
+                line(-6.0, -10.0, -6.0, 10.0),
+                line(-6.0, -5.0, 8.0, -20.0),
+                line(-6.0, 5.0, 8.0, 20.0)
+            )
+        }
         Role::Regulator => {
             "<rect x=\"-25\" y=\"-15\" width=\"50\" height=\"30\"/><text x=\"0\" y=\"4\" class=\"small\" text-anchor=\"middle\">REG</text>".to_string()
         }
@@ -232,7 +242,7 @@ fn part(out: &mut String, v: &ValueRow, role: Role, nets: &[(String, String)], c
     let _ = write!(
         out,
         "<g transform=\"translate({cx} {cy})\" stroke=\"{INK}\" fill=\"none\" stroke-width=\"1.6\">{}</g>",
-        body(role)
+        body(role, v.part.contains("PNP"))
     );
     for (pin, side, x, y) in pin_layout(role) {
         let (sx, sy) = (cx + x, cy + y);

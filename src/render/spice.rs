@@ -305,6 +305,7 @@ pub fn netlist(s: &Sized, opt: &NetlistOptions) -> String {
                 if let crate::analysis::compensation::Compensator::Twin(tw) = &core.compensation {
                     let (n1, n2) = (pin(d, "1"), pin(d, "2"));
                     let Some((king, _)) = king_for(&tw.element, t_trip, target, &core.env) else {
+                        out.push_str("* (no King's-law form of the twin's cooling: the twin is omitted and its leg is open)\n");
                         continue;
                     };
                     let r = resistance_expr(
@@ -533,6 +534,14 @@ pub fn netlist(s: &Sized, opt: &NetlistOptions) -> String {
             None => out.push_str("* (no model)\n"),
         }
     }
+    let on_output = report
+        .connections
+        .iter()
+        .filter(|c| c.node == "cmp_out")
+        .count();
+    if on_output == 1 {
+        out.push_str("* cmp_out carries only the comparator (no [output] and no hysteresis): add a pull-up to watch it switch\n");
+    }
     models.dedup();
     for m in models {
         out.push_str(&m);
@@ -588,7 +597,9 @@ pub fn netlist(s: &Sized, opt: &NetlistOptions) -> String {
             out.push_str(a);
             out.push('\n');
         }
-        out.push_str(".endc\n");
+        // `quit 0`: ngspice's batch mode otherwise exits 1 ("no
+        // simulations run" refers to dot-analyses, not the block's).
+        out.push_str("quit 0\n.endc\n");
     } else {
         out.push_str(
             "* Ready-made analyses (add them in a .control block, or run netlist --analyses):\n",

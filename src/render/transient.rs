@@ -38,7 +38,7 @@ pub fn render_text(r: &TransientReport) -> String {
     match r.scenario.as_str() {
         "power-on" => {
             let bare = if r.hold_off.is_some() {
-                " (no CH1)"
+                " (no hold-off C1)"
             } else {
                 ""
             };
@@ -66,13 +66,13 @@ pub fn render_text(r: &TransientReport) -> String {
                 let eng = crate::quantity::format_engineering;
                 line(
                     &mut o,
-                    "hold-off capacitor CH1",
+                    "hold-off capacitor C1",
                     &eng(h.capacitance_f, "F", 2),
                 );
                 line(&mut o, "its time constant", &eng(h.time_constant_s, "s", 3));
                 line(
                     &mut o,
-                    "false alarm with CH1",
+                    "false alarm with the hold-off C1",
                     &format!("{:.3} s", h.false_alarm_with_it_s),
                 );
             }
@@ -118,10 +118,10 @@ pub fn render_text(r: &TransientReport) -> String {
         }
     };
     if r.scenario == "power-on" && r.hold_off.is_some() {
-        edges(&mut o, "Output edges without CH1", &r.events);
+        edges(&mut o, "Output edges without the hold-off C1", &r.events);
         edges(
             &mut o,
-            "Output edges with CH1 (nominal ambient)",
+            "Output edges with the hold-off C1 (nominal ambient)",
             &r.events_with_hold_off,
         );
     } else {
