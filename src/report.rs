@@ -77,6 +77,25 @@ pub struct TripSummary {
     pub inverting_input: String,
     /// Where the hysteresis feedback goes and why.
     pub hysteresis_note: String,
+    /// Geometry cooling: the nominal trip airflow of the built circuit under
+    /// every rule for combining forced and natural convection (absent for
+    /// King's law and the data-sheet form, whose constants are the model).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub model_spread_m_per_s: Option<ModelSpread>,
+}
+
+/// The trip airflow under every mixing rule of the convection model.
+#[derive(Debug, Clone, PartialEq, Serialize, Default)]
+pub struct ModelSpread {
+    /// Smallest trip airflow over the rules, m/s.
+    pub min: f64,
+    /// Largest, m/s.
+    pub max: f64,
+    /// The rule the design uses.
+    pub chosen: String,
+    /// Each rule's trip airflow, m/s (`null` where the output never
+    /// switches under that rule).
+    pub by_rule: std::collections::BTreeMap<String, Option<f64>>,
 }
 
 /// One line of the bill of values.

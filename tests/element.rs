@@ -434,3 +434,58 @@ fn fine_wires_default_to_morgans_natural_convection() {
         thick.assumptions
     );
 }
+
+/// `mixing` picks the rule that combines forced and natural convection;
+/// `mixing_exponent` belongs to Churchill–Usagi only and lies in 1–6; the
+/// report gives the built circuit's trip under every rule, the design's
+/// own at its target (issue 11; the rules in docs/model.md §3.2).
+#[test]
+fn mixing_rules_are_read_and_the_trip_is_spread_over_them() {
+    use draftwire::design::overrides::Override;
+    use draftwire::physics::convection::MixingRule;
+    let path =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/duct-platinum-wire.toml");
+    let text = std::fs::read_to_string(path).unwrap();
+    let with = |sets: &[&str]| {
+        let o: Vec<Override> = sets.iter().map(|s| Override::parse(s).unwrap()).collect();
+        draftwire::design::parse_design_with("duct.toml", &text, &o)
+    };
+    let cu = with(&[
+        "element.cooling.mixing=churchill-usagi",
+        "element.cooling.mixing_exponent=4",
+    ])
+    .unwrap();
+    assert_eq!(
+        cu.element.cooling_law().mixing(),
+        Some(MixingRule::ChurchillUsagi { exponent: 4.0 })
+    );
+    let e = with(&["element.cooling.mixing_exponent=4"])
+        .unwrap_err()
+        .to_string();
+    assert!(e.contains("mixing_exponent"), "{e}");
+    let e = with(&[
+        "element.cooling.mixing=churchill-usagi",
+        "element.cooling.mixing_exponent=9",
+    ])
+    .unwrap_err()
+    .to_string();
+    assert!(e.contains("1 to 6"), "{e}");
+    let r = draftwire::analysis::size(&with(&[]).unwrap()).unwrap();
+    let m = r
+        .trip
+        .model_spread_m_per_s
+        .expect("a spread for geometry cooling");
+    assert_eq!(m.by_rule.len(), 3);
+    let own = m.by_rule["intercept-removed"].unwrap();
+    assert!((own - r.trip.airflow_m_per_s.unwrap()).abs() < 1e-6 * own);
+    assert!(m.min <= own && own <= m.max && m.max > m.min);
+    // King's law: its constants are the model; no spread.
+    let server = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("examples/server-cabinet-airflow.toml");
+    let d = parse_design("s.toml", &std::fs::read_to_string(server).unwrap()).unwrap();
+    assert!(draftwire::analysis::size(&d)
+        .unwrap()
+        .trip
+        .model_spread_m_per_s
+        .is_none());
+}

@@ -336,8 +336,9 @@ proptest! {
 proptest! {
     #![proptest_config(ProptestConfig::with_cases(10_000))]
 
-    /// Geometry cooling: the inversion (one 1-D root of loss(T, U) = P at
-    /// the temperature the level implies) agrees with the bracketed search
+    /// Geometry cooling: the inversion (the Nusselt relation solved for U at
+    /// the temperature the level implies, under each mixing rule) agrees
+    /// with the bracketed search
     /// on random fine platinum and tungsten wires of 5–100 µm, both forced
     /// correlations, both drives (10 000 cases; the reference search costs
     /// about a millisecond a case, so this test takes some seconds).
@@ -354,6 +355,7 @@ proptest! {
         i_factor in 0.2f64..1.0,
         u_level in 0.02f64..20.0,
         spill in -0.2f64..0.2,
+        rule in 0usize..3,
     ) {
         let material = if tungsten { Material::Tungsten } else { Material::Platinum };
         let forced = if collis { ForcedCorrelation::CollisWilliams } else { ForcedCorrelation::ChurchillBernstein };
@@ -365,7 +367,11 @@ proptest! {
         } else {
             ResistanceLaw::Platinum(CallendarVanDusen::iec60751(r20 / 1.0779).unwrap())
         };
-        let el = Element::new(law, CoolingLaw::Geometry(cooling), 1e-5, None).unwrap();
+        // Every mixing rule (the inversion solves each for its forced term).
+        let cooling = CoolingLaw::Geometry(cooling)
+            .with_mixing(draftwire::physics::convection::MixingRule::ALL[rule])
+            .unwrap();
+        let el = Element::new(law, cooling, 1e-5, None).unwrap();
         let env = Environment::at(ta);
         // A current that heats the wire by tens to hundreds of kelvin.
         let drive = if use_current {

@@ -119,6 +119,7 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
         non_inverting_input: plus,
         inverting_input: minus,
         hysteresis_note,
+        model_spread_m_per_s: None,
     }
 }
 

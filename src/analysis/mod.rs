@@ -7,6 +7,7 @@ pub mod compare;
 pub mod compensation;
 pub mod corners;
 pub mod drift;
+pub mod model_spread;
 pub mod output;
 pub mod plot;
 pub mod size;
@@ -38,7 +39,7 @@ pub struct Sized {
     pub report: Report,
 }
 
-/// [`size`], keeping the sized core.
+/// [`size()`], keeping the sized core.
 pub fn size_full(design: &Design) -> Result<Sized, SizeError> {
     let choice = choice::resolve(design);
     let design = &choice.design;
@@ -139,6 +140,9 @@ pub fn size_full(design: &Design) -> Result<Sized, SizeError> {
         nodes: Vec::new(),
         connections: Vec::new(),
     };
+    let (spread, spread_warning) = model_spread::model_spread(design, &core, &report.trip);
+    report.trip.model_spread_m_per_s = spread;
+    report.warnings.extend(spread_warning);
     wiring::apply(&mut report, design, &core, hold_off_to_rail);
     Ok(Sized {
         design: design.clone(),

@@ -35,7 +35,7 @@ use crate::element::{
     CoolingLaw, DissipationLaw, Element, GeometryCooling, KingsLaw, LinearTcr, ResistanceLaw,
     ResistanceTable, ScaledSteinhartHart, Shape,
 };
-use crate::physics::convection::{ForcedCorrelation, NaturalCorrelation};
+use crate::physics::convection::{ForcedCorrelation, MixingRule, NaturalCorrelation};
 use crate::physics::lamp::{coil_note, LampRating};
 use crate::physics::materials::Material;
 use crate::physics::platinum::CallendarVanDusen;
@@ -472,7 +472,7 @@ fn resistance_keys(r: &raw::RawResistance) -> [Key; 10] {
 }
 
 /// Every optional key of `[element.cooling]`.
-fn cooling_keys(c: &raw::RawCooling) -> [Key; 16] {
+fn cooling_keys(c: &raw::RawCooling) -> [Key; 18] {
     [
         ("a", at(&c.a)),
         ("b", at(&c.b)),
@@ -493,6 +493,8 @@ fn cooling_keys(c: &raw::RawCooling) -> [Key; 16] {
             "calibrated_range",
             c.calibrated_range.as_ref().map(|v| v.span()),
         ),
+        ("mixing", at(&c.mixing)),
+        ("mixing_exponent", at(&c.mixing_exponent)),
     ]
 }
 
@@ -876,6 +878,8 @@ fn cooling(
                 "natural",
                 "emissivity",
                 "supports",
+                "mixing",
+                "mixing_exponent",
             ];
             if law == "coil" {
                 takes.extend(["wire_diameter", "wire_length"]);
@@ -1006,9 +1010,68 @@ fn cooling(
                     }
                 },
             };
-            Ok((CoolingLaw::Geometry(geo), derived))
+            let mixing = read_mixing(rd, c, &f)?;
+            let law = CoolingLaw::Geometry(geo);
+            let law = law.with_mixing(mixing).unwrap_or(law);
+            Ok((law, derived))
         }
     }
+}
+
+/// `mixing` (and `mixing_exponent` for Churchill–Usagi) of a geometry
+/// cooling law; draftwire's own rule when absent (echoed).
+fn read_mixing(
+    rd: &mut Reader<'_>,
+    c: &raw::RawCooling,
+    f: &dyn Fn(&str) -> String,
+) -> R<MixingRule> {
+    let word = match &c.mixing {
+        Some(w) => Some(rd.word(
+            w,
+            &f("mixing"),
+            &["intercept-removed", "churchill-usagi", "larger"],
+        )?),
+        None => None,
+    };
+    if let (Some(v), false) = (&c.mixing_exponent, word == Some("churchill-usagi")) {
+        return Err(rd.err(
+            Some(v.span()),
+            &f("mixing_exponent"),
+            "mixing_exponent belongs to mixing = \"churchill-usagi\"".into(),
+        ));
+    }
+    Ok(match word {
+        None => {
+            rd.assumptions.push(format!(
+                "{} not given: {} (draftwire's rule; the report gives the trip airflow under every rule)",
+                f("mixing"),
+                MixingRule::InterceptRemoved.describe()
+            ));
+            MixingRule::InterceptRemoved
+        }
+        Some("churchill-usagi") => {
+            let exponent = match &c.mixing_exponent {
+                Some(v) => {
+                    let x = rd.quantity(v, &f("mixing_exponent"), Dimension::Fraction)?;
+                    if !(1.0..=6.0).contains(&x) {
+                        return Err(rd.err(
+                            Some(v.span()),
+                            &f("mixing_exponent"),
+                            format!(
+                                "expected an exponent of 1 to 6, found {}",
+                                crate::quantity::format_sig(x, 6)
+                            ),
+                        ));
+                    }
+                    x
+                }
+                None => 3.0,
+            };
+            MixingRule::ChurchillUsagi { exponent }
+        }
+        Some("larger") => MixingRule::Larger,
+        _ => MixingRule::InterceptRemoved,
+    })
 }
 
 /// What a lamp gives: its resistance law, its cooling, its heat capacity

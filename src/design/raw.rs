@@ -255,6 +255,10 @@ pub struct RawCooling {
     pub supports: Option<Value>,
     /// The airflow range King's constants were calibrated over.
     pub calibrated_range: Option<Spanned<Vec<Value>>>,
+    /// Geometry cooling: how the forced and natural terms are combined.
+    pub mixing: Option<Word>,
+    /// Geometry cooling: the Churchill–Usagi exponent.
+    pub mixing_exponent: Option<Value>,
 }
 
 /// `[element.lamp]`.

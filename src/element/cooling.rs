@@ -6,7 +6,7 @@
 use super::Environment;
 use crate::physics::air::AIR_TABLE_RANGE_K;
 use crate::physics::convection::{
-    ConvectionState, CylinderInCrossFlow, ForcedCorrelation, NaturalCorrelation,
+    ConvectionState, CylinderInCrossFlow, ForcedCorrelation, MixingRule, NaturalCorrelation,
 };
 use crate::physics::materials::Material;
 use crate::physics::radiation::radiative_loss_w;
@@ -426,6 +426,26 @@ impl CoolingLaw {
                 .ok()
                 .map(|cylinder| CoolingLaw::Geometry(GeometryCooling { cylinder, ..*g }))
             }
+        }
+    }
+
+    /// This law with another rule for combining forced and natural
+    /// convection (geometry cooling only; `None` for the other laws).
+    pub fn with_mixing(&self, rule: MixingRule) -> Option<CoolingLaw> {
+        match self {
+            CoolingLaw::Geometry(g) => Some(CoolingLaw::Geometry(GeometryCooling {
+                cylinder: g.cylinder.with_mixing(rule),
+                ..*g
+            })),
+            _ => None,
+        }
+    }
+
+    /// The mixing rule of geometry cooling.
+    pub fn mixing(&self) -> Option<MixingRule> {
+        match self {
+            CoolingLaw::Geometry(g) => Some(g.cylinder.mixing()),
+            _ => None,
         }
     }
 

@@ -303,6 +303,104 @@ pub struct RangeWarnings {
     pub free_convection_dominates: bool,
 }
 
+/// How the forced and natural terms are combined into one Nusselt number.
+/// Fine wires at 0.05–0.5 m/s sit where the two are of the same size and
+/// the published rules disagree most (issue 11); draftwire offers these
+/// and reports the trip airflow under each (`trip.model_spread_m_per_s`).
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub enum MixingRule {
+    /// draftwire's rule, `Nu⁴ = Nu_N⁴ + Nu_F⁴ − Nu_F0⁴` ([`nusselt_mixed`]):
+    /// a Churchill–Usagi mean with the forced correlation's still-air
+    /// intercept taken out. Not itself a published correlation.
+    InterceptRemoved,
+    /// The Churchill–Usagi power mean of the full terms, `Nu^m = Nu_F^m +
+    /// Nu_N^m` (S. W. Churchill & R. Usagi, AIChE J. 18 (1972) 1121–1128;
+    /// as used for mixed convection in Incropera 6th ed. eq. 9.64, where an
+    /// exponent of 3 is the usual choice for assisting and transverse flow;
+    /// *memory*). At U = 0 it keeps the forced intercept as well.
+    ChurchillUsagi {
+        /// The exponent m (≥ 1).
+        exponent: f64,
+    },
+    /// The larger of the two terms, `max(Nu_F, Nu_N)`: each regime alone,
+    /// with a dead band where the forced term is below the natural one.
+    Larger,
+}
+
+impl MixingRule {
+    /// Every rule draftwire offers, Churchill–Usagi at its usual exponent 3.
+    pub const ALL: [MixingRule; 3] = [
+        MixingRule::InterceptRemoved,
+        MixingRule::ChurchillUsagi { exponent: 3.0 },
+        MixingRule::Larger,
+    ];
+
+    /// The design-file name (`mixing = "…"`), draftwire's own names.
+    pub fn name(self) -> &'static str {
+        match self {
+            MixingRule::InterceptRemoved => "intercept-removed",
+            MixingRule::ChurchillUsagi { .. } => "churchill-usagi",
+            MixingRule::Larger => "larger",
+        }
+    }
+
+    /// In words, with the exponent where there is one.
+    pub fn describe(self) -> String {
+        match self {
+            MixingRule::InterceptRemoved => {
+                "intercept removed (Nu⁴ = Nu_N⁴ + Nu_F⁴ − Nu_F0⁴)".to_string()
+            }
+            MixingRule::ChurchillUsagi { exponent } => format!(
+                "Churchill–Usagi (Nu^m = Nu_F^m + Nu_N^m, m = {})",
+                crate::quantity::format_sig(exponent, 3)
+            ),
+            MixingRule::Larger => "the larger term (Nu = max(Nu_F, Nu_N))".to_string(),
+        }
+    }
+
+    /// The combined Nusselt number from the forced term at this Re, its
+    /// still-air intercept and the natural term.
+    pub fn combine(self, nu_forced: f64, nu_forced_still_air: f64, nu_natural: f64) -> f64 {
+        match self {
+            MixingRule::InterceptRemoved => {
+                nusselt_mixed(nu_forced, nu_forced_still_air, nu_natural)
+            }
+            MixingRule::ChurchillUsagi { exponent } => {
+                (nu_forced.powf(exponent) + nu_natural.powf(exponent)).powf(1.0 / exponent)
+            }
+            MixingRule::Larger => nu_forced.max(nu_natural),
+        }
+    }
+
+    /// The forced term that gives the combined `nusselt` (the rule solved
+    /// for Nu_F), or `None` when only a forced term below its still-air
+    /// value would (the loss is below the still-air loss).
+    pub fn forced_for(
+        self,
+        nusselt: f64,
+        nu_forced_still_air: f64,
+        nu_natural: f64,
+    ) -> Option<f64> {
+        let still = self.combine(nu_forced_still_air, nu_forced_still_air, nu_natural);
+        if nusselt.is_nan() || nusselt < still {
+            return None;
+        }
+        Some(match self {
+            MixingRule::InterceptRemoved => {
+                let m = MIXED_CONVECTION_EXPONENT;
+                (nusselt.powi(m) - nu_natural.powi(m) + nu_forced_still_air.powi(m))
+                    .sqrt()
+                    .sqrt()
+            }
+            MixingRule::ChurchillUsagi { exponent } => {
+                (nusselt.powf(exponent) - nu_natural.powf(exponent)).powf(1.0 / exponent)
+            }
+            // Above the dead band the combined number is the forced term.
+            MixingRule::Larger => nusselt.max(nu_forced_still_air),
+        })
+    }
+}
+
 /// Result of one convection calculation.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct ConvectionState {
@@ -337,6 +435,7 @@ pub struct CylinderInCrossFlow {
     length_m: f64,
     forced: ForcedCorrelation,
     natural: NaturalCorrelation,
+    mixing: MixingRule,
 }
 
 impl CylinderInCrossFlow {
@@ -366,7 +465,18 @@ impl CylinderInCrossFlow {
             length_m,
             forced,
             natural,
+            mixing: MixingRule::InterceptRemoved,
         })
+    }
+
+    /// This cylinder with another mixing rule.
+    pub fn with_mixing(self, mixing: MixingRule) -> Self {
+        Self { mixing, ..self }
+    }
+
+    /// The mixing rule.
+    pub fn mixing(&self) -> MixingRule {
+        self.mixing
     }
 
     /// Diameter, m.
@@ -469,7 +579,9 @@ impl CylinderInCrossFlow {
         // Re < Gr^(1/3), compared as Re³ < Gr (both ≥ 0) to spare a cube root.
         warnings.free_convection_dominates = reynolds * reynolds * reynolds < grashof;
 
-        let nusselt = nusselt_mixed(nu_forced, nu_forced_still_air, nu_natural);
+        let nusselt = self
+            .mixing
+            .combine(nu_forced, nu_forced_still_air, nu_natural);
         let h = nusselt * air.thermal_conductivity_w_per_m_k / d;
         let conductance = h * self.surface_area_m2();
         Ok(ConvectionState {
@@ -519,22 +631,17 @@ impl CylinderInCrossFlow {
         let d = self.diameter_m;
         let nusselt = convective_w * d
             / (air.thermal_conductivity_w_per_m_k * self.surface_area_m2() * delta_k);
-        let m = MIXED_CONVECTION_EXPONENT;
         let nu_n = still.nusselt_natural;
         let reynolds = match self.forced {
             ForcedCorrelation::CollisWilliams => {
                 let loading = collis_williams_loading(film_k, ambient_k);
                 let nu_f0 = loading * collis_williams_branch(0.0);
-                let nu_f = (nusselt.powi(m) - nu_n.powi(m) + nu_f0.powi(m))
-                    .sqrt()
-                    .sqrt();
+                let nu_f = self.mixing.forced_for(nusselt, nu_f0, nu_n)?;
                 reynolds_for_collis_williams_branch(nu_f / loading)
             }
             ForcedCorrelation::ChurchillBernstein => {
                 let nu_f0 = nusselt_churchill_bernstein(0.0, air.prandtl);
-                let nu_f = (nusselt.powi(m) - nu_n.powi(m) + nu_f0.powi(m))
-                    .sqrt()
-                    .sqrt();
+                let nu_f = self.mixing.forced_for(nusselt, nu_f0, nu_n)?;
                 reynolds_for_churchill_bernstein(nu_f, air.prandtl)
             }
         };
@@ -965,5 +1072,53 @@ mod tests {
         let excess =
             fine.nusselt_natural / at(5e-6, NaturalCorrelation::Morgan).nusselt_natural - 1.0;
         assert!((0.30..0.40).contains(&excess), "{excess}");
+    }
+
+    /// The mixing rules by hand: intercept removed is `nusselt_mixed`;
+    /// Churchill–Usagi at m = 3 of Nu_F = 0.5, Nu_N = 0.4 is
+    /// (0.125 + 0.064)^(1/3) = 0.5739 (hand); the larger term is the max;
+    /// and Churchill–Usagi at a large exponent tends to the larger term
+    /// (the power mean's limit, Churchill & Usagi 1972).
+    #[test]
+    fn mixing_rules_by_hand() {
+        assert_eq!(
+            MixingRule::InterceptRemoved.combine(0.8, 0.3, 0.45),
+            nusselt_mixed(0.8, 0.3, 0.45)
+        );
+        let cu = MixingRule::ChurchillUsagi { exponent: 3.0 }.combine(0.5, 0.24, 0.4);
+        assert!((cu - 0.189f64.cbrt()).abs() < 1e-12, "{cu}");
+        assert!((cu - 0.5739).abs() < 1e-4);
+        assert_eq!(MixingRule::Larger.combine(0.5, 0.24, 0.4), 0.5);
+        assert_eq!(MixingRule::Larger.combine(0.3, 0.24, 0.4), 0.4);
+        let steep = MixingRule::ChurchillUsagi { exponent: 60.0 }.combine(0.5, 0.24, 0.4);
+        assert!((steep / 0.5 - 1.0) < 0.01 && steep >= 0.5);
+    }
+
+    proptest! {
+        /// Each rule solved for the forced term gives back the forced term
+        /// that produced the combined number (above the still-air value;
+        /// for the larger term, above the dead band).
+        #[test]
+        fn mixing_rules_invert(
+            nu_f0 in 0.1f64..0.5,
+            excess in 1e-3f64..20.0,
+            nu_n in 0.05f64..2.0,
+            m in 1.0f64..6.0,
+        ) {
+            let nu_f = nu_f0 + excess;
+            for rule in [
+                MixingRule::InterceptRemoved,
+                MixingRule::ChurchillUsagi { exponent: m },
+                MixingRule::Larger,
+            ] {
+                let nu = rule.combine(nu_f, nu_f0, nu_n);
+                let back = rule.forced_for(nu, nu_f0, nu_n);
+                if rule == MixingRule::Larger && nu_f <= nu_n {
+                    continue; // the dead band: no unique forced term
+                }
+                let back = back.unwrap();
+                prop_assert!((back - nu_f).abs() <= 1e-9 * nu_f, "{rule:?}: {back} vs {nu_f}");
+            }
+        }
     }
 }

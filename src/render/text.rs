@@ -396,6 +396,28 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
         ("non-inverting input (+)", tr.non_inverting_input.clone()),
         ("inverting input (−)", tr.inverting_input.clone()),
     ];
+    let mut trip_lines = trip_lines.to_vec();
+    if let Some(m) = &tr.model_spread_m_per_s {
+        let each: Vec<String> = m
+            .by_rule
+            .iter()
+            .map(|(rule, u)| match u {
+                Some(u) => format!("{rule} {}", air.number(*u, 1)),
+                None => format!("{rule} never"),
+            })
+            .collect();
+        trip_lines.push((
+            "model spread",
+            format!(
+                "{}–{} {} over the mixing rules ({}; the design uses {})",
+                air.number(m.min, 1),
+                air.number(m.max, 1),
+                air.symbol(),
+                each.join(", "),
+                m.chosen
+            ),
+        ));
+    }
     key_values(&mut out, &trip_lines);
     out.push_str(&wrap(&air.prose(&tr.hysteresis_note), "  ", "  ", width));
 
