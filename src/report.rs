@@ -69,8 +69,10 @@ pub struct TripSummary {
     pub trimmer_top_state: String,
     /// How far one percent of trimmer travel moves the trip point, m/s.
     pub airflow_per_percent_travel_m_per_s: f64,
-    /// Trip-point uncertainty from the comparator's input offset, ± m/s.
-    pub offset_uncertainty_m_per_s: f64,
+    /// Trip-airflow uncertainty from the comparator's offset, ± m/s
+    /// (offset / sensitivity); `null` where the sense voltage does not move
+    /// with airflow at the trip point (no sensitivity to divide by).
+    pub offset_uncertainty_m_per_s: Option<f64>,
     /// Which signal goes to the non-inverting input.
     pub non_inverting_input: String,
     /// Which signal goes to the inverting input.

@@ -489,3 +489,31 @@ fn mixing_rules_are_read_and_the_trip_is_spread_over_them() {
         .model_spread_m_per_s
         .is_none());
 }
+
+/// A King's-law element calibrated over 0.25–2 m/s: every operating point
+/// and drift row outside that range gets a warning saying how far the law
+/// is extrapolated (issue 11; the 0.5×trip point at 0.15 m/s is 0.1 m/s,
+/// 40 %, below 0.25 m/s, by hand).
+#[test]
+fn extrapolation_beyond_the_calibrated_range_is_measured() {
+    use draftwire::design::overrides::Override;
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("examples/workshop-door-draught.toml");
+    let text = std::fs::read_to_string(path).unwrap();
+    let o = [Override::parse("element.cooling.calibrated_range=[0.25 m/s, 2 m/s]").unwrap()];
+    let d = draftwire::design::parse_design_with("w.toml", &text, &o).unwrap();
+    let r = draftwire::analysis::size(&d).unwrap();
+    assert!(
+        r.warnings.iter().any(|w| w.starts_with("0.5×trip")
+            && w.contains("0.1 m/s below its lowest calibrated airflow (40 % of that airflow)")),
+        "{:?}",
+        r.warnings
+    );
+    assert!(
+        r.warnings
+            .iter()
+            .any(|w| w.starts_with("trip at ") && w.contains("below its lowest calibrated")),
+        "{:?}",
+        r.warnings
+    );
+}

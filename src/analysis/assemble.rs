@@ -111,11 +111,8 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
         trimmer_bottom_state: end_state(design, core, at(0.0), 0.0),
         trimmer_top_state: end_state(design, core, at(1.0), 1.0),
         airflow_per_percent_travel_m_per_s: per_percent,
-        offset_uncertainty_m_per_s: if sens != 0.0 {
-            design.comparator.offset_v / sens.abs()
-        } else {
-            f64::MAX
-        },
+        offset_uncertainty_m_per_s: (sens != 0.0 && sens.is_finite())
+            .then(|| design.comparator.offset_v / sens.abs()),
         non_inverting_input: plus,
         inverting_input: minus,
         hysteresis_note,

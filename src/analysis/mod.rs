@@ -140,6 +140,23 @@ pub fn size_full(design: &Design) -> Result<Sized, SizeError> {
         nodes: Vec::new(),
         connections: Vec::new(),
     };
+    // Drift rows whose trip lies outside the cooling law's calibrated range
+    // (each site once, with how far it extrapolates).
+    for row in &report.drift {
+        let Some(u) = row.trip_airflow_m_per_s else {
+            continue;
+        };
+        if let Some(w) = design.element.calibration_warning(u) {
+            let line = format!("trip at {}: {w}", row.condition);
+            if !report.warnings.contains(&line) {
+                report.warnings.push(line);
+            }
+        }
+    }
+    let s = core.sensitivity_v_per_m_per_s;
+    if s.is_nan() || s == 0.0 {
+        report.warnings.push("the sense voltage does not move with airflow at the trip point: the cooling law is flat there (with `mixing = \"larger\"`, the target lies in its dead band, where forced convection is still below natural convection), so the detector cannot resolve its own trip point".into());
+    }
     let (spread, spread_warning) = model_spread::model_spread(design, &core, &report.trip);
     report.trip.model_spread_m_per_s = spread;
     report.warnings.extend(spread_warning);

@@ -75,6 +75,27 @@ pub fn model_spread(
         return (None, None);
     }
     let band = trip.band_m_per_s[1] - trip.band_m_per_s[0];
+    let never: Vec<&str> = by_rule
+        .iter()
+        .filter(|(_, u)| u.is_none())
+        .map(|(k, _)| k.as_str())
+        .collect();
+    if !never.is_empty() {
+        let warning = format!(
+            "under the convection model's {} rule{} the built circuit never switches between still air and 100 m/s at its trip level: the trip point rests on the mixing rule; calibrate on the bench with `draftwire fit`",
+            never.join(", "),
+            if never.len() > 1 { "s" } else { "" }
+        );
+        return (
+            Some(ModelSpread {
+                min: lo,
+                max: hi,
+                chosen: key(chosen),
+                by_rule,
+            }),
+            Some(warning),
+        );
+    }
     let warning = (hi - lo > band).then(|| {
         format!(
             "the convection model's mixing rules put the nominal trip airflow anywhere from {} to {} m/s, wider than the trip band ({} m/s wide): the trip point cannot be trusted until a bench calibration (`draftwire fit`) fixes the cooling law",

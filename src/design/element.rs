@@ -1122,6 +1122,10 @@ fn lamp(rd: &mut Reader<'_>, l: &raw::RawLamp, p: &str) -> R<LampParts> {
         0.0,
     )
     .map_err(|er| rd.err(here, &pre, er.to_string()))?;
+    rd.assumptions.push(format!(
+        "{pre}: the inferred filament's convection combines forced and natural terms by {} (draftwire's rule; the report gives the trip airflow under every rule; an [element.cooling] table with `mixing` replaces it)",
+        MixingRule::InterceptRemoved.describe()
+    ));
     let pl = &fil.plausibility;
     let range = format!(
         "the {:.4}–{:.4} ohm expected for a lamp running at {:.0}–{:.0} K",

@@ -164,14 +164,34 @@ impl Element {
     /// ([`CoolingLaw::range_warnings`]); empty when all is in range.
     pub fn range_warnings(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> Vec<String> {
         let mut w = self.cooling.range_warnings(t_k, airflow_m_per_s, env);
-        if let Some((lo, hi)) = self.calibrated_range {
-            if airflow_m_per_s < lo * (1.0 - 1e-9) || airflow_m_per_s > hi * (1.0 + 1e-9) {
-                w.push(format!(
-                    "{airflow_m_per_s:.3} m/s lies outside the airflow range the cooling law was calibrated over ({lo} – {hi} m/s): the law is extrapolated there"
-                ));
-            }
-        }
+        w.extend(self.calibration_warning(airflow_m_per_s));
         w
+    }
+
+    /// A warning when `airflow_m_per_s` lies outside the airflow range the
+    /// cooling law was calibrated over, saying how far it extrapolates
+    /// (issue 11: King's law near still air has an infinite slope at
+    /// U → 0, so an extrapolation below the calibration is least safe).
+    pub fn calibration_warning(&self, airflow_m_per_s: f64) -> Option<String> {
+        let (lo, hi) = self.calibrated_range?;
+        let u = airflow_m_per_s;
+        let how_far = if u < lo * (1.0 - 1e-9) {
+            format!(
+                "{} m/s below its lowest calibrated airflow ({} % of that airflow)",
+                crate::quantity::format_sig(lo - u, 3),
+                crate::quantity::format_sig(100.0 * (lo - u) / lo, 3)
+            )
+        } else if u > hi * (1.0 + 1e-9) {
+            format!(
+                "{} m/s above its highest calibrated airflow",
+                crate::quantity::format_sig(u - hi, 3)
+            )
+        } else {
+            return None;
+        };
+        Some(format!(
+            "{u:.3} m/s lies outside the airflow range the cooling law was calibrated over ({lo} – {hi} m/s): the law is extrapolated {how_far}"
+        ))
     }
 
     /// The airflow range the cooling law was calibrated over, m/s.

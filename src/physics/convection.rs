@@ -1117,7 +1117,9 @@ mod tests {
                     continue; // the dead band: no unique forced term
                 }
                 let back = back.unwrap();
-                prop_assert!((back - nu_f).abs() <= 1e-9 * nu_f, "{rule:?}: {back} vs {nu_f}");
+                // A steep exponent with a small forced term loses a few
+                // digits in Nu^m − Nu_N^m: 1e-8 leaves room for that.
+                prop_assert!((back - nu_f).abs() <= 1e-8 * nu_f, "{rule:?}: {back} vs {nu_f}");
             }
         }
     }

@@ -387,11 +387,10 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
         ),
         (
             "comparator offset adds",
-            format!(
-                "± {} {}",
-                air.number(tr.offset_uncertainty_m_per_s, 1),
-                air.symbol()
-            ),
+            match tr.offset_uncertainty_m_per_s {
+                Some(u) => format!("± {} {}", air.number(u, 1), air.symbol()),
+                None => "— (the sense voltage does not move with airflow here)".to_string(),
+            },
         ),
         ("non-inverting input (+)", tr.non_inverting_input.clone()),
         ("inverting input (−)", tr.inverting_input.clone()),
