@@ -330,13 +330,6 @@ struct GridPoint {
     f: f64,
 }
 
-/// Why the bounded census handed a solve back to the full scan.
-enum Handback {
-    /// A non-finite value or a loss that fell with temperature: the full
-    /// scan decides (and reports).
-    Scan,
-}
-
 /// The full scan's root set, found by visiting only the grid intervals
 /// that can hold a sign change (model.md §5.2b).
 ///
@@ -407,10 +400,9 @@ pub fn operating_point_bounded(
         slope: &|t| residual_slope(element, drive, env, u, t),
         first_slope: None,
     };
-    match visit.interval(0, SCAN_INTERVALS + 1, first, last) {
-        Ok(()) => {}
-        Err(Handback::Scan) => return None,
-    }
+    // `None`: a non-finite value or a loss that fell with temperature; the
+    // full scan decides (and reports).
+    visit.interval(0, SCAN_INTERVALS + 1, first, last)?;
     let visit_first_slope = visit.first_slope;
     let Some((t, _)) = roots.iter().next() else {
         // The full scan's figures, taken at the top of the range itself.
@@ -450,19 +442,19 @@ where
     F: Fn(f64) -> f64,
     S: Fn(f64) -> f64,
 {
-    fn interval(&mut self, i: usize, j: usize, a: GridPoint, b: GridPoint) -> Result<(), Handback> {
+    fn interval(&mut self, i: usize, j: usize, a: GridPoint, b: GridPoint) -> Option<()> {
         if b.loss < a.loss {
-            return Err(Handback::Scan);
+            return None;
         }
         if j == i + 1 {
             // The full scan's test and refinement on one grid interval.
             if a.f != 0.0 && (b.f == 0.0 || b.f.signum() != a.f.signum()) {
-                let root = brent(self.f, a.t, b.t).map_err(|_| Handback::Scan)?;
+                let root = brent(self.f, a.t, b.t).ok()?;
                 let slope = (self.slope)(root.x);
                 self.first_slope.get_or_insert(slope);
                 self.roots.push(root.x, slope > 0.0);
             }
-            return Ok(());
+            return Some(());
         }
         let p_min = a.power.min(b.power);
         let p_max = match self.peak {
@@ -473,10 +465,10 @@ where
         // point (the skipped points' computed f keeps its sign).
         let margin = 1e-10 * (b.loss.abs() + p_max.abs());
         if a.loss - p_max > margin || b.loss - p_min < -margin {
-            return Ok(());
+            return Some(());
         }
         let m = (i + j) / 2;
-        let mid = (self.eval)(m).ok_or(Handback::Scan)?;
+        let mid = (self.eval)(m)?;
         self.interval(i, m, a, mid)?;
         self.interval(m, j, mid, b)
     }

@@ -8,6 +8,7 @@ pub mod compensation;
 pub mod corners;
 pub mod drift;
 pub mod model_spread;
+pub mod netlist_model;
 pub mod output;
 pub mod plot;
 pub mod size;

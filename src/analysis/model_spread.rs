@@ -80,30 +80,22 @@ pub fn model_spread(
         .filter(|(_, u)| u.is_none())
         .map(|(k, _)| k.as_str())
         .collect();
-    if !never.is_empty() {
-        let warning = format!(
+    let warning = if !never.is_empty() {
+        Some(format!(
             "under the convection model's {} rule{} the built circuit never switches between still air and 100 m/s at its trip level: the trip point rests on the mixing rule; calibrate on the bench with `draftwire fit`",
             never.join(", "),
             if never.len() > 1 { "s" } else { "" }
-        );
-        return (
-            Some(ModelSpread {
-                min: lo,
-                max: hi,
-                chosen: key(chosen),
-                by_rule,
-            }),
-            Some(warning),
-        );
-    }
-    let warning = (hi - lo > band).then(|| {
-        format!(
-            "the convection model's mixing rules put the nominal trip airflow anywhere from {} to {} m/s, wider than the trip band ({} m/s wide): the trip point cannot be trusted until a bench calibration (`draftwire fit`) fixes the cooling law",
-            crate::quantity::format_sig(lo, 3),
-            crate::quantity::format_sig(hi, 3),
-            crate::quantity::format_sig(band, 3)
-        )
-    });
+        ))
+    } else {
+        (hi - lo > band).then(|| {
+            format!(
+                "the convection model's mixing rules put the nominal trip airflow anywhere from {} to {} m/s, wider than the trip band ({} m/s wide): the trip point cannot be trusted until a bench calibration (`draftwire fit`) fixes the cooling law",
+                crate::quantity::format_sig(lo, 3),
+                crate::quantity::format_sig(hi, 3),
+                crate::quantity::format_sig(band, 3)
+            )
+        })
+    };
     (
         Some(ModelSpread {
             min: lo,

@@ -197,7 +197,7 @@ impl Role {
 /// Internal id → trade designator, for the parts of one design.
 #[derive(Debug, Clone, Default)]
 pub struct Renaming {
-    map: Vec<(String, String, Role)>,
+    map: Vec<(String, String)>,
 }
 
 impl Renaming {
@@ -225,7 +225,7 @@ impl Renaming {
                         1
                     }
                 };
-                (role.internal_id().to_string(), format!("{class}{n}"), role)
+                (role.internal_id().to_string(), format!("{class}{n}"))
             })
             .collect();
         Self { map }
@@ -235,13 +235,8 @@ impl Renaming {
     pub fn designator(&self, internal: &str) -> String {
         self.map
             .iter()
-            .find(|(i, _, _)| i == internal)
-            .map_or_else(|| internal.to_string(), |(_, d, _)| d.clone())
-    }
-
-    /// The role of an internal id.
-    pub fn role(&self, internal: &str) -> Option<Role> {
-        Role::from_internal(internal)
+            .find(|(i, _)| i == internal)
+            .map_or_else(|| internal.to_string(), |(_, d)| d.clone())
     }
 
     /// `text` with every internal id written as a whole word replaced by
@@ -251,8 +246,8 @@ impl Renaming {
         let mut out = String::with_capacity(text.len());
         let mut word = String::new();
         let flush = |word: &mut String, out: &mut String| {
-            match self.map.iter().find(|(i, _, _)| i == word) {
-                Some((_, d, _)) => out.push_str(d),
+            match self.map.iter().find(|(i, _)| i == word) {
+                Some((_, d)) => out.push_str(d),
                 None => out.push_str(word),
             }
             word.clear();
@@ -549,7 +544,7 @@ pub fn apply(
         .values
         .sort_by_key(|v| Role::from_internal(&v.designator));
     for v in &mut report.values {
-        if let Some(role) = names.role(&v.designator) {
+        if let Some(role) = Role::from_internal(&v.designator) {
             v.function = role.function().to_string();
         }
         v.designator = names.designator(&v.designator);

@@ -48,12 +48,17 @@ pub fn run(path: &Path, ask: &Ask) -> ExitCode {
     let text = if ask.svg {
         render::schematic::svg(&sized.report)
     } else {
+        let figures = draftwire::analysis::netlist_model::expected(
+            &sized,
+            airflow.unwrap_or(sized.design.detector.trip_airflow_m_per_s),
+        );
         render::spice::netlist(
             &sized,
             &render::spice::NetlistOptions {
                 airflow_m_per_s: airflow,
                 analyses: ask.analyses,
             },
+            figures.as_ref(),
         )
     };
     if !emit(&text) {

@@ -12,10 +12,10 @@
 //! al., *Fundamentals of Heat and Mass Transfer*, 6th ed., §3.1.3, thermal
 //! circuits). The comparator is a behavioural open-collector output.
 
+use crate::analysis::netlist_model::{king_for, Expected};
 use crate::analysis::wiring::Role;
 use crate::analysis::Sized;
-use crate::element::{CoolingLaw, Element, Environment, KingsLaw, ResistanceLaw};
-use crate::solve::{airflow_for_sense, operating_point};
+use crate::element::{KingsLaw, ResistanceLaw};
 
 /// Thermal time constant assumed for a compensating NTC, whose heat
 /// capacity the design file does not give: only a `.tran` sees it
@@ -43,26 +43,6 @@ pub struct NetlistOptions {
     pub analyses: bool,
 }
 
-/// What draftwire computes for the netlist's own model: the figures a
-/// cross-check compares the simulator with.
-#[derive(Debug, Clone, Copy, PartialEq)]
-pub struct Expected {
-    /// Airflow of the operating point, m/s.
-    pub airflow_m_per_s: f64,
-    /// Element temperature there, °C.
-    pub element_temp_c: f64,
-    /// Sense voltage there, V.
-    pub sense_v: f64,
-    /// Airflow at which the output trips, m/s (nominal parts and
-    /// conditions).
-    pub trip_airflow_m_per_s: Option<f64>,
-    /// Airflow at which it releases, m/s.
-    pub release_airflow_m_per_s: Option<f64>,
-    /// Whether the netlist models the cooling by an equivalent King's law
-    /// (geometry cooling) rather than the design's own law.
-    pub equivalent_king: bool,
-}
-
 /// SPICE node of a connection-list node.
 fn spice_node(n: &str) -> &str {
     if n == "gnd" {
@@ -76,26 +56,6 @@ fn spice_node(n: &str) -> &str {
 /// `m` as milli and `M` as milli too, so suffixes are avoided).
 fn num(x: f64) -> String {
     format!("{x:e}")
-}
-
-/// The cooling law as King's law for the netlist: the law itself, the
-/// data-sheet form's King form, or for geometry cooling the equivalent
-/// King's law fitted around the trip point at the element's trip
-/// temperature (`CoolingLaw::equivalent_kings_law`).
-fn king_for(
-    element: &Element,
-    t_k: f64,
-    airflow: f64,
-    env: &Environment,
-) -> Option<(KingsLaw, bool)> {
-    match element.cooling_law() {
-        CoolingLaw::King(k) => Some((*k, false)),
-        CoolingLaw::Datasheet(d) => Some((d.as_kings_law(), false)),
-        law => law
-            .equivalent_kings_law(t_k, airflow, env)
-            .ok()
-            .map(|k| (k, true)),
-    }
 }
 
 /// R(T) of a resistance law as a SPICE expression in `t`, the temperature
@@ -175,44 +135,9 @@ fn king_expr(k: &KingsLaw) -> String {
     )
 }
 
-/// Draftwire's own figures for the netlist's model at `airflow`.
-pub fn expected(s: &Sized, airflow: f64) -> Option<Expected> {
-    let core = &s.core;
-    let t_trip = core.at_trip.temperature_k;
-    let target = s.design.detector.trip_airflow_m_per_s;
-    let (king, equivalent) = king_for(&core.element, t_trip, target, &core.env)?;
-    let model = if equivalent {
-        core.element.with_cooling_law(CoolingLaw::King(king))
-    } else {
-        core.element.clone()
-    };
-    let p = operating_point(&model, &core.drive, &core.env, airflow).ok()?;
-    let t = &s.report.trip;
-    let (trip, release) = if equivalent {
-        // The switching levels do not move with airflow unless a twin sits
-        // in the air; then only the design's own law gives them.
-        if core.compensation.in_air_stream() {
-            (None, None)
-        } else {
-            let at =
-                |level: f64| airflow_for_sense(&model, &core.drive, &core.env, level, target).ok();
-            (at(t.sense_voltage_v), at(t.release_sense_voltage_v))
-        }
-    } else {
-        (t.airflow_m_per_s, t.release_airflow_m_per_s)
-    };
-    Some(Expected {
-        airflow_m_per_s: airflow,
-        element_temp_c: p.temperature_k - 273.15,
-        sense_v: p.sense_v,
-        trip_airflow_m_per_s: trip,
-        release_airflow_m_per_s: release,
-        equivalent_king: equivalent,
-    })
-}
-
-/// The netlist.
-pub fn netlist(s: &Sized, opt: &NetlistOptions) -> String {
+/// The netlist; `figures` are draftwire's own for its model
+/// ([`crate::analysis::netlist_model::expected`]), printed as comments.
+pub fn netlist(s: &Sized, opt: &NetlistOptions, figures: Option<&Expected>) -> String {
     let (design, core, report) = (&s.design, &s.core, &s.report);
     let airflow = opt
         .airflow_m_per_s
@@ -547,7 +472,7 @@ pub fn netlist(s: &Sized, opt: &NetlistOptions) -> String {
         out.push_str(&m);
     }
     out.push_str(&format!(".nodeset v(element_temp)={}\n", num(ta_c)));
-    if let Some(e) = expected(s, airflow) {
+    if let Some(e) = figures {
         out.push_str(
             "* draftwire's figures for this netlist's model (nominal parts and conditions):\n",
         );
