@@ -1,4 +1,5 @@
-//! One-dimensional root finding: a bracketed Brent solver.
+//! One-dimensional root finding: a bracketed Brent solver, and the real
+//! roots of a quadratic in closed form.
 //!
 //! Brent, R. P., *Algorithms for Minimization without Derivatives*,
 //! Prentice-Hall (1973), ch. 4 (the `zero` procedure). The method keeps a
@@ -231,5 +232,48 @@ mod tests {
             brent(|x| x * x + 1.0, -1.0, 1.0),
             Err(RootError::NotBracketed { .. })
         ));
+    }
+}
+
+/// The real roots of a·x² + b·x + c = 0 by the cancellation-free form
+/// q = −½·(b + sgn(b)·√(b² − 4ac)), x₁ = q/a, x₂ = c/q (Press et al.,
+/// *Numerical Recipes*, 3rd ed., §5.6). With a = 0 the single root of the
+/// linear equation is returned twice; `None` when there is no real root.
+pub fn quadratic_roots(a: f64, b: f64, c: f64) -> Option<(f64, f64)> {
+    if a == 0.0 {
+        let x = -c / b;
+        return x.is_finite().then_some((x, x));
+    }
+    let disc = b * b - 4.0 * a * c;
+    if disc.is_nan() || disc < 0.0 {
+        return None;
+    }
+    let q = -0.5 * (b + b.signum() * disc.sqrt());
+    if q == 0.0 {
+        return Some((0.0, 0.0));
+    }
+    Some((q / a, c / q))
+}
+
+#[cfg(test)]
+mod quadratic_tests {
+    use super::quadratic_roots;
+
+    #[test]
+    fn roots_of_worked_quadratics() {
+        // Hand calculation: x² − 3x + 2 = (x − 1)(x − 2).
+        let (r0, r1) = quadratic_roots(1.0, -3.0, 2.0).unwrap();
+        let (lo, hi) = (r0.min(r1), r0.max(r1));
+        assert!((lo - 1.0).abs() < 1e-15 && (hi - 2.0).abs() < 1e-15);
+        // Hand calculation: x² + 1 has no real root.
+        assert!(quadratic_roots(1.0, 0.0, 1.0).is_none());
+        // Cancellation case (Numerical Recipes §5.6): x² − 1e8·x + 1 has
+        // roots 1e8 and 1e-8 (product 1, sum 1e8); the small one keeps
+        // full precision.
+        let (r0, r1) = quadratic_roots(1.0, -1e8, 1.0).unwrap();
+        let small = r0.min(r1);
+        assert!((small - 1e-8).abs() < 1e-22);
+        // Linear: 2x − 4 = 0.
+        assert_eq!(quadratic_roots(0.0, 2.0, -4.0), Some((2.0, 2.0)));
     }
 }

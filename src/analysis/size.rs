@@ -695,10 +695,13 @@ fn fixed(s: Sizable) -> Option<f64> {
 }
 
 /// The trimmer position at which the comparator switches out of the idle
-/// state at sense level `v_t`; the switching level is affine in the wiper
-/// ratio, so one secant through the ends gives it (solved with Brent for
-/// robustness when the feedback loads the wiper).
+/// state at sense level `v_t`: in closed form
+/// ([`FrontEnd::position_for_switching_sense`]), else by Brent's method
+/// on −1 … 2, else by one secant through the ends.
 pub fn trimmer_position(front: &FrontEnd, idle: OutputState, v_t: f64, sense_src: f64) -> f64 {
+    if let Some(x) = front.position_for_switching_sense(v_t, idle, sense_src) {
+        return x;
+    }
     let g = |x: f64| front.switching_sense_v(x, idle, sense_src) - v_t;
     match brent(g, -1.0, 2.0) {
         Ok(r) => r.x,

@@ -97,6 +97,56 @@ impl FrontEnd {
         }
     }
 
+    /// The trimmer position at which the comparator switches out of `state`
+    /// at sense level `v_t`, in closed form; `None` when no position in
+    /// −1 … 2 gives it (the caller then searches).
+    ///
+    /// With L = Rb + x·Rp the divider's lower part, T its total and
+    /// U = T − L, the wiper's Thevenin source is (V·L/T, L·U/T)
+    /// (Thevenin's theorem). Millman's theorem at the input then gives:
+    /// - no feedback: V·L/T = v_t, linear in L;
+    /// - sense on the non-inverting input: the inverting input must sit at
+    ///   c = (v_t/R1 + Vo/Ro)/(1/R1 + 1/Ro), again linear (V·L/T = c);
+    /// - reference on the non-inverting input:
+    ///   (V·L·Ro + Vo·L·U)/(Ro·T + L·U) = v_t, which multiplies out to the
+    ///   quadratic −(Vo − v_t)·L² + ((Vo − v_t)·T + V·Ro)·L − v_t·Ro·T = 0.
+    pub fn position_for_switching_sense(
+        &self,
+        v_t: f64,
+        state: OutputState,
+        sense_source_ohm: f64,
+    ) -> Option<f64> {
+        let d = &self.divider;
+        let total = d.total_ohm();
+        let rail = self.reference_rail_v;
+        let x_of = |lower: f64| (lower - d.bottom_ohm) / d.trimmer_ohm;
+        let in_reach = |x: &f64| x.is_finite() && (-1.0..=2.0).contains(x);
+        let linear = |wiper_v: f64| Some(x_of(wiper_v / rail * total)).filter(in_reach);
+        match (self.arrangement, self.feedback_ohm) {
+            (_, None) => linear(v_t),
+            (Arrangement::SenseOnNonInverting, Some(rf)) => {
+                let (vo, ro) = self.output_source(state, rf);
+                let r1 = sense_source_ohm + self.input_ohm;
+                linear(millman(v_t, r1, vo, ro))
+            }
+            (Arrangement::ReferenceOnNonInverting, Some(rf)) => {
+                let (vo, ro) = self.output_source(state, rf);
+                let a = -(vo - v_t);
+                let b = (vo - v_t) * total + rail * ro;
+                let c = -v_t * ro * total;
+                let roots = crate::roots::quadratic_roots(a, b, c)?;
+                // The physical root: the lower part within the divider.
+                let fits = |l: &f64| (0.0..=total).contains(l);
+                let lower = match roots {
+                    (r0, r1) if fits(&r0) && !fits(&r1) => r0,
+                    (r0, r1) if fits(&r1) && !fits(&r0) => r1,
+                    _ => return None,
+                };
+                Some(x_of(lower)).filter(in_reach)
+            }
+        }
+    }
+
     /// Voltages at the two comparator inputs (non-inverting, inverting) for
     /// a sense voltage `sense_v`, trimmer `x` and output `state`.
     pub fn input_voltages(
@@ -225,5 +275,41 @@ mod tests {
             (fe.switching_sense_v(x, OutputState::Low, src) - net.node_voltage_output_low()).abs()
                 < 1e-12
         );
+    }
+
+    use proptest::prelude::*;
+
+    proptest! {
+        /// Invariant: the closed-form trimmer position reproduces the level
+        /// it was asked for, in both arrangements, both states, with and
+        /// without feedback (the forward map is Thevenin + Millman).
+        #[test]
+        fn closed_form_position_reproduces_its_level(
+            top in 1e3f64..1e6, trimmer in 1e2f64..1e5, bottom in 1e3f64..1e6,
+            rail in 2.0f64..24.0, x in 0.0f64..1.0, rf_ln in 9.0f64..18.4,
+            with_fb in any::<bool>(), sense_side in any::<bool>(), high in any::<bool>(),
+            src in 1.0f64..1e4, vol in 0.0f64..0.5, rpu in 1e2f64..1e5,
+        ) {
+            let fe = FrontEnd {
+                arrangement: if sense_side {
+                    Arrangement::SenseOnNonInverting
+                } else {
+                    Arrangement::ReferenceOnNonInverting
+                },
+                divider: Divider { top_ohm: top, trimmer_ohm: trimmer, bottom_ohm: bottom },
+                reference_rail_v: rail,
+                feedback_ohm: with_fb.then(|| rf_ln.exp()),
+                input_ohm: 1e3,
+                output_high: (rail, rpu),
+                output_low_v: vol,
+            };
+            let state = if high { OutputState::High } else { OutputState::Low };
+            let v_t = fe.switching_sense_v(x, state, src);
+            let found = fe.position_for_switching_sense(v_t, state, src);
+            prop_assert!(found.is_some(), "no closed-form position for x = {x}");
+            let back = fe.switching_sense_v(found.unwrap(), state, src);
+            prop_assert!((back - v_t).abs() <= 1e-9 * v_t.abs().max(1e-3),
+                "x = {x}: level {v_t} V, closed form gives {back} V");
+        }
     }
 }
