@@ -512,7 +512,7 @@ impl CoolingLaw {
     /// empty for King and the data-sheet form; for geometry, the flags of
     /// the convection correlations ([`crate::physics::convection::RangeWarnings`])
     /// and a film temperature outside the range over which the air
-    /// properties were checked (Incropera 6th ed. Table A.4, 250–600 K).
+    /// properties were checked against published tables (240–700 K).
     pub fn range_warnings(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> Vec<String> {
         let CoolingLaw::Geometry(g) = self else {
             return Vec::new();
@@ -562,7 +562,7 @@ impl CoolingLaw {
         if c.film_temperature_k < lo || c.film_temperature_k > hi {
             out.push(format!(
                 "film temperature {:.0} K {at} is outside {lo:.0}–{hi:.0} K, where the air properties were checked \
-                 against Incropera 6th ed. Table A.4",
+                 against published tables",
                 c.film_temperature_k
             ));
         }
@@ -765,7 +765,7 @@ mod tests {
         let king = CoolingLaw::King(KingsLaw::new(1e-3, 2e-3, 0.5).unwrap());
         assert!(king.range_warnings(400.0, 500.0, &e).is_empty());
         // A film temperature of (2000 + 293)/2 ≈ 1147 K lies above the
-        // 250–600 K over which the air properties were checked.
+        // 240–700 K over which the air properties were checked.
         let w = wire().range_warnings(2000.0, 1.0, &e);
         assert!(w.iter().any(|s| s.contains("film temperature")), "{w:?}");
     }

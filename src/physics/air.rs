@@ -1,17 +1,27 @@
 //! Thermophysical properties of dry air, and atmospheric pressure at altitude.
 //!
-//! - Viscosity and thermal conductivity: Sutherland's law (W. Sutherland,
-//!   Phil. Mag. 36 (1893) 507–531) with the constants of F. M. White,
-//!   *Viscous Fluid Flow*, 3rd ed. (McGraw-Hill 2006), Tables 1-2 and 1-3.
-//! - Density: ideal gas, ρ = p/(R·T).
+//! - Viscosity and thermal conductivity: E. W. Lemmon & R. T. Jacobsen,
+//!   "Viscosity and thermal conductivity equations for nitrogen, oxygen,
+//!   argon, and air", Int. J. Thermophys. 25 (2004) 21–69: the dilute-gas
+//!   terms in full and the residual (density) terms to first order in the
+//!   reduced density δ, which is about 0.004 at 1 atm (coefficients as
+//!   transcribed in the open CoolProp library's `Air.json`; the leftover
+//!   terms are of order δ² ≈ 2e-5 of the residual and the critical
+//!   enhancement is zero above 265 K at 1 atm).
+//! - Density: ideal gas, ρ = p/(R·T). Against the reference equation of
+//!   state (E. W. Lemmon, R. T. Jacobsen, S. G. Penoncello & D. G. Friend,
+//!   J. Phys. Chem. Ref. Data 29 (2000) 331–385) the compressibility at
+//!   1 atm is 0.99904 at 250 K and 1.00037 at 700 K, so ρ is within 0.1 %.
 //! - Specific heat: linear interpolation in Incropera, DeWitt, Bergman &
 //!   Lavine, *Fundamentals of Heat and Mass Transfer*, 6th ed. (Wiley 2007),
-//!   Table A.4 (air at atmospheric pressure, 100–3000 K).
+//!   Table A.4 (air at atmospheric pressure, 100–3000 K); within 0.3 % of the
+//!   NBS Circular 564 ideal-gas values over 250–700 K (tests).
 //!
-//! Checked against Table A.4 over [`AIR_TABLE_RANGE_K`]. Above about 1000 K
-//! Sutherland's law falls below the table (computed: μ −2 % at 1000 K,
-//! k −14 % at 1500 K), and above about 2000 K the table's c_p includes
-//! dissociation; the values stay finite and positive up to 3000 K and beyond.
+//! Checked against published tables over [`AIR_TABLE_RANGE_K`] (the tests:
+//! Lemmon & Jacobsen's own check values, the CRC Handbook's viscosity table,
+//! NBS Circular 564, a Prandtl-number table at 1 bar). Above about 2000 K the
+//! table's c_p includes dissociation; the values stay finite and positive up
+//! to 3000 K and beyond.
 
 /// Standard sea-level pressure, Pa (U.S. Standard Atmosphere 1976, P₀).
 pub const STANDARD_PRESSURE_PA: f64 = 101_325.0;
@@ -34,20 +44,56 @@ pub const SPECIFIC_GAS_CONSTANT_AIR_J_PER_KG_K: f64 =
 /// the U.S. Standard Atmosphere 1976 value).
 pub const STANDARD_GRAVITY_M_PER_S2: f64 = 9.806_65;
 
-/// Temperature range (K) over which these fits are checked against
-/// Incropera 6th ed. Table A.4 in the tests (μ, k, Pr within 2 %).
-pub const AIR_TABLE_RANGE_K: (f64, f64) = (250.0, 600.0);
+/// Temperature range (K) over which these properties are checked against
+/// published tables in the tests (μ, k, c_p, Pr within 0.5 %).
+pub const AIR_TABLE_RANGE_K: (f64, f64) = (240.0, 700.0);
 
-/// Sutherland reference temperature T₀ = 273 K (White 2006, Tables 1-2, 1-3).
-const SUTHERLAND_T0_K: f64 = 273.0;
-/// μ₀ = 1.716e-5 Pa·s at T₀ (White 2006, Table 1-2, air).
-const SUTHERLAND_MU0_PA_S: f64 = 1.716e-5;
-/// Sutherland constant for viscosity, S = 111 K (White 2006, Table 1-2, air).
-const SUTHERLAND_S_MU_K: f64 = 111.0;
-/// k₀ = 0.0241 W/(m·K) at T₀ (White 2006, Table 1-3, air).
-const SUTHERLAND_K0_W_PER_M_K: f64 = 0.0241;
-/// Sutherland constant for conductivity, S = 194 K (White 2006, Table 1-3, air).
-const SUTHERLAND_S_K_K: f64 = 194.0;
+/// Lemmon & Jacobsen (2004), air: molar mass M = 28.9586 g/mol, Lennard-Jones
+/// σ = 0.360 nm and ε/k = 103.3 K, and the collision-integral fit
+/// Ω(T*) = exp(Σ bᵢ·(ln T*)ⁱ), bᵢ = 0.431, −0.4623, 0.08406, 0.005341,
+/// −0.00331 (their Table I as transcribed in CoolProp's `Air.json`).
+const LJ_MOLAR_MASS_G_PER_MOL: f64 = 28.9586;
+const LJ_SIGMA_NM: f64 = 0.360;
+const LJ_EPSILON_OVER_K_K: f64 = 103.3;
+const LJ_OMEGA_B: [f64; 5] = [0.431, -0.4623, 0.08406, 0.005341, -0.00331];
+/// Reducing temperature and molar density of the air equation of state,
+/// T_r = 132.6312 K, ρ_r = 10 447.7 mol/m³ (Lemmon et al. 2000; the
+/// reducing point, not the critical point), and the molar gas constant it
+/// uses, R = 8.31451 J/(mol·K).
+const LJ_REDUCING_T_K: f64 = 132.6312;
+const LJ_REDUCING_MOLAR_DENSITY_MOL_PER_M3: f64 = 10_447.7;
+const LJ_MOLAR_GAS_CONSTANT_J_PER_MOL_K: f64 = 8.314_51;
+
+/// Dynamic viscosity μ (Pa·s) and thermal conductivity k (W/(m·K)) of dry
+/// air at `t_k` and molar density `rho_mol_per_m3` (Lemmon & Jacobsen 2004):
+///
+/// - η₀ [µPa·s] = 0.0266958·√(M·T)/(σ²·Ω(T*)), T* = T/(ε/k);
+/// - η_r ≈ δ·(10.72·τ^0.2 − 8.876·τ^0.6·e^(−δ)), the two δ¹ terms of the
+///   residual sum Nᵢ·τ^tᵢ·δ^dᵢ·exp(−γᵢ·δ^lᵢ);
+/// - λ₀ [mW/(m·K)] = 1.308·η₀ + 1.405·τ^(−1.1) − 1.036·τ^(−0.3);
+/// - λ_r ≈ 8.743·τ^0.1·δ + 14.76·δ², the residual sum's δ¹ and δ² terms;
+///
+/// with τ = T_r/T and δ = ρ/ρ_r. Every power of τ is a power of τ^0.1, so
+/// one logarithm and two exponentials serve the whole evaluation.
+fn lemmon_jacobsen(t_k: f64, rho_mol_per_m3: f64) -> (f64, f64) {
+    let ln_t = t_k.ln();
+    let ln_t_star = ln_t - LJ_EPSILON_OVER_K_K.ln();
+    let b = LJ_OMEGA_B;
+    let ln_omega =
+        b[0] + ln_t_star * (b[1] + ln_t_star * (b[2] + ln_t_star * (b[3] + ln_t_star * b[4])));
+    let eta0 = 0.026_695_8 * (LJ_MOLAR_MASS_G_PER_MOL * t_k).sqrt()
+        / (LJ_SIGMA_NM * LJ_SIGMA_NM * ln_omega.exp());
+    let tau = LJ_REDUCING_T_K / t_k;
+    let tau_01 = (0.1 * (LJ_REDUCING_T_K.ln() - ln_t)).exp();
+    let tau_02 = tau_01 * tau_01;
+    let tau_03 = tau_02 * tau_01;
+    let tau_06 = tau_03 * tau_03;
+    let delta = rho_mol_per_m3 / LJ_REDUCING_MOLAR_DENSITY_MOL_PER_M3;
+    let eta_r = delta * (10.72 * tau_02 - 8.876 * tau_06 * (-delta).exp());
+    let lambda0 = 1.308 * eta0 + 1.405 / (tau * tau_01) - 1.036 / tau_03;
+    let lambda_r = 8.743 * tau_01 * delta + 14.76 * delta * delta;
+    ((eta0 + eta_r) * 1e-6, (lambda0 + lambda_r) * 1e-3)
+}
 
 /// Incropera 6th ed. Table A.4, air: (T in K, c_p in J/(kg·K)).
 const CP_TABLE_A4: [(f64, f64); 35] = [
@@ -152,13 +198,6 @@ impl AirProperties {
     }
 }
 
-/// Sutherland's law, X = X₀·(T/T₀)^{3/2}·(T₀ + S)/(T + S)
-/// (Sutherland 1893; White, *Viscous Fluid Flow*, 3rd ed., 2006, eq. 1-36).
-fn sutherland(x0: f64, s_k: f64, temperature_k: f64) -> f64 {
-    let ratio = temperature_k / SUTHERLAND_T0_K;
-    x0 * ratio * ratio.sqrt() * (SUTHERLAND_T0_K + s_k) / (temperature_k + s_k)
-}
-
 /// c_p by linear interpolation in Incropera 6th ed. Table A.4; held at the
 /// end values outside 100–3000 K.
 fn specific_heat_j_per_kg_k(temperature_k: f64) -> f64 {
@@ -170,24 +209,19 @@ fn specific_heat_j_per_kg_k(temperature_k: f64) -> f64 {
     if temperature_k >= last.0 {
         return last.1;
     }
-    CP_TABLE_A4
-        .windows(2)
-        .find(|w| temperature_k <= w[1].0)
-        .map(|w| {
-            let (t0, c0) = w[0];
-            let (t1, c1) = w[1];
-            c0 + (c1 - c0) * (temperature_k - t0) / (t1 - t0)
-        })
-        .unwrap_or(last.1)
+    // First node at or above T (binary search; the ends are handled above).
+    let i = CP_TABLE_A4.partition_point(|&(t, _)| t < temperature_k);
+    let (t0, c0) = CP_TABLE_A4[i - 1];
+    let (t1, c1) = CP_TABLE_A4[i];
+    c0 + (c1 - c0) * (temperature_k - t0) / (t1 - t0)
 }
 
 /// Properties of dry air at `temperature_k` and `pressure_pa`.
 ///
-/// μ and k by Sutherland's law with White's (2006) constants
-/// (μ₀ = 1.716e-5 Pa·s, S = 111 K; k₀ = 0.0241 W/(m·K), S = 194 K; T₀ = 273 K);
-/// ρ = p/(R·T) with R from the U.S. Standard Atmosphere 1976; c_p interpolated
-/// in Incropera 6th ed. Table A.4; ν = μ/ρ; Pr = μ·c_p/k.
-/// μ, k and c_p are taken as independent of pressure (dilute gas).
+/// μ and k by Lemmon & Jacobsen (2004), their density terms at the ideal-gas
+/// molar density p/(R·T); ρ = p/(R·T) with R from the U.S. Standard
+/// Atmosphere 1976; c_p interpolated in Incropera 6th ed. Table A.4 (taken
+/// as independent of pressure); ν = μ/ρ; Pr = μ·c_p/k.
 pub fn air_properties(temperature_k: f64, pressure_pa: f64) -> Result<AirProperties, AirError> {
     if !(temperature_k.is_finite() && temperature_k > 0.0) {
         return Err(AirError::Temperature {
@@ -200,8 +234,8 @@ pub fn air_properties(temperature_k: f64, pressure_pa: f64) -> Result<AirPropert
         });
     }
     let density = pressure_pa / (SPECIFIC_GAS_CONSTANT_AIR_J_PER_KG_K * temperature_k);
-    let mu = sutherland(SUTHERLAND_MU0_PA_S, SUTHERLAND_S_MU_K, temperature_k);
-    let k = sutherland(SUTHERLAND_K0_W_PER_M_K, SUTHERLAND_S_K_K, temperature_k);
+    let molar_density = pressure_pa / (LJ_MOLAR_GAS_CONSTANT_J_PER_MOL_K * temperature_k);
+    let (mu, k) = lemmon_jacobsen(temperature_k, molar_density);
     let cp = specific_heat_j_per_kg_k(temperature_k);
     Ok(AirProperties {
         temperature_k,
@@ -242,15 +276,14 @@ mod tests {
     use proptest::prelude::*;
 
     /// Incropera, DeWitt, Bergman & Lavine, *Fundamentals of Heat and Mass
-    /// Transfer*, 6th ed. (Wiley 2007), Table A.4, air:
-    /// (T K, ρ kg/m³, c_p kJ/(kg·K), μ·10⁷ N·s/m², k·10³ W/(m·K), Pr).
-    const TABLE_A4_ROWS: [(f64, f64, f64, f64, f64, f64); 6] = [
-        (250.0, 1.3947, 1.006, 159.6, 22.3, 0.720),
-        (300.0, 1.1614, 1.007, 184.6, 26.3, 0.707),
-        (350.0, 0.9950, 1.009, 208.2, 30.0, 0.700),
-        (400.0, 0.8711, 1.014, 230.1, 33.8, 0.690),
-        (500.0, 0.6964, 1.030, 270.1, 40.7, 0.684),
-        (600.0, 0.5804, 1.051, 305.8, 46.9, 0.685),
+    /// Transfer*, 6th ed. (Wiley 2007), Table A.4, air: (T K, ρ kg/m³).
+    const TABLE_A4_DENSITY: [(f64, f64); 6] = [
+        (250.0, 1.3947),
+        (300.0, 1.1614),
+        (350.0, 0.9950),
+        (400.0, 0.8711),
+        (500.0, 0.6964),
+        (600.0, 0.5804),
     ];
 
     fn rel(a: f64, b: f64) -> f64 {
@@ -258,69 +291,130 @@ mod tests {
     }
 
     #[test]
-    fn matches_incropera_table_a4() {
-        for (t, rho, cp_kj, mu7, k3, pr) in TABLE_A4_ROWS {
-            assert!(t >= AIR_TABLE_RANGE_K.0 && t <= AIR_TABLE_RANGE_K.1);
-            let air = air_properties(t, STANDARD_PRESSURE_PA).unwrap();
-            // μ and k within 2 % (Sutherland vs Table A.4).
-            assert!(
-                rel(air.dynamic_viscosity_pa_s, mu7 * 1e-7) < 0.02,
-                "mu at {t} K"
-            );
-            assert!(
-                rel(air.thermal_conductivity_w_per_m_k, k3 * 1e-3) < 0.02,
-                "k at {t} K"
-            );
-            // ρ within 1.5 %: the table's densities are for 100 kPa, about
-            // 1.3 % below p/(RT) at 101.325 kPa.
-            assert!(rel(air.density_kg_per_m3, rho) < 0.015, "rho at {t} K");
-            // c_p is interpolated in this very table: exact at the nodes.
-            assert!(
-                rel(air.specific_heat_j_per_kg_k, cp_kj * 1e3) < 1e-12,
-                "cp at {t} K"
-            );
-            assert!(rel(air.prandtl, pr) < 0.02, "Pr at {t} K");
+    fn lemmon_jacobsen_published_check_values() {
+        // Lemmon & Jacobsen (2004), check values for air in the dilute-gas
+        // limit at 300 K: η = 18.5230 µPa·s, λ = 26.3529 mW/(m·K) (as
+        // listed in the open CoolProp library's test suite,
+        // src/Tests/CoolProp-Tests.cpp). Evaluated here at 1 mPa, where the
+        // density terms are 1e-8 of the whole.
+        let air = air_properties(300.0, 1e-3).unwrap();
+        assert!(rel(air.dynamic_viscosity_pa_s, 18.5230e-6) < 1e-5);
+        assert!(rel(air.thermal_conductivity_w_per_m_k, 26.3529e-3) < 1e-5);
+    }
+
+    #[test]
+    fn viscosity_matches_crc_handbook_table() {
+        // CRC Handbook of Chemistry and Physics, "Viscosity of Gases"
+        // (Huber & Harvey), air at 100 kPa, µPa·s, printed to 3 figures.
+        // Found here: +0.25, +0.20, −0.19, −0.04, −0.10 % (the table's last
+        // figure is 0.2–0.4 % of the value).
+        for (t, mu) in [
+            (200.0, 13.3),
+            (300.0, 18.5),
+            (400.0, 23.1),
+            (500.0, 27.1),
+            (600.0, 30.8),
+        ] {
+            let air = air_properties(t, 100_000.0).unwrap();
+            let r = rel(air.dynamic_viscosity_pa_s, mu * 1e-6);
+            assert!(r < 0.005, "mu at {t} K off by {:.2} %", 100.0 * r);
         }
     }
 
     #[test]
+    fn prandtl_number_matches_published_table_at_1_bar() {
+        // Engineering ToolBox, "Air - Prandtl number" at 1 bara (values
+        // that agree with the reference equations to their last figure; the
+        // page names no source). Found here: within 0.10 %.
+        for (t, pr) in [
+            (240.0, 0.717),
+            (260.0, 0.713),
+            (273.15, 0.711),
+            (300.0, 0.707),
+            (320.0, 0.705),
+            (373.15, 0.701),
+            (423.15, 0.699),
+            (473.15, 0.698),
+            (523.15, 0.699),
+            (573.15, 0.702),
+        ] {
+            let air = air_properties(t, 100_000.0).unwrap();
+            let r = rel(air.prandtl, pr);
+            assert!(r < 0.005, "Pr at {t} K off by {:.2} %", 100.0 * r);
+        }
+        // Same source, "Air - properties" at 0 °C and 1 bar: μ 17.22 µPa·s,
+        // k 24.35 mW/(m·K). Found here: −0.01 % and +0.04 %.
+        let air = air_properties(273.15, 100_000.0).unwrap();
+        assert!(rel(air.dynamic_viscosity_pa_s, 17.22e-6) < 0.005);
+        assert!(rel(air.thermal_conductivity_w_per_m_k, 24.35e-3) < 0.005);
+    }
+
+    #[test]
+    fn specific_heat_matches_nbs_circular_564() {
+        // NBS Circular 564 (1955), "Tables of Thermal Properties of Gases",
+        // ideal-gas c_p of air, kJ/(kg·K) (as reprinted in thermodynamics
+        // textbooks' ideal-gas tables). The code interpolates a different
+        // table (Incropera Table A.4); found here: +0.30 % at 250 K, 0 at
+        // 550–700 K.
+        for (t, cp) in [
+            (250.0, 1.003),
+            (300.0, 1.005),
+            (350.0, 1.008),
+            (400.0, 1.013),
+            (450.0, 1.020),
+            (500.0, 1.029),
+            (550.0, 1.040),
+            (600.0, 1.051),
+            (650.0, 1.063),
+            (700.0, 1.075),
+        ] {
+            let air = air_properties(t, STANDARD_PRESSURE_PA).unwrap();
+            let r = rel(air.specific_heat_j_per_kg_k, cp * 1e3);
+            assert!(r < 0.005, "cp at {t} K off by {:.2} %", 100.0 * r);
+        }
+    }
+
+    #[test]
+    fn density_matches_standard_atmosphere_and_cipm_2007() {
+        // U.S. Standard Atmosphere 1976, sea level: 1.2250 kg/m³ at
+        // 288.15 K and 101 325 Pa.
+        let air = air_properties(288.15, STANDARD_PRESSURE_PA).unwrap();
+        assert!(rel(air.density_kg_per_m3, 1.2250) < 5e-5);
+        // CIPM-2007 formula for the density of moist air (Picard et al.,
+        // Metrologia 45 (2008) 149), dry air at 20 °C and 101 325 Pa:
+        // Z = 0.999643, M = 28.96546 g/mol, R = 8.314472 J/(mol·K), so
+        // ρ = p·M/(Z·R·T) = 1.20456 kg/m³ (hand calculation). The ideal gas
+        // law here is 0.04 % below: within the 0.1 % stated in the module.
+        let air = air_properties(293.15, STANDARD_PRESSURE_PA).unwrap();
+        assert!(rel(air.density_kg_per_m3, 1.20456) < 1e-3);
+    }
+
+    #[test]
     fn density_at_100_kpa_matches_table_tightly() {
-        // Same table, same rows: at the table's own 100 kPa basis the ideal
+        // Incropera 6th ed. Table A.4 densities (100 kPa basis): the ideal
         // gas law reproduces ρ within 0.2 %.
-        for (t, rho, ..) in TABLE_A4_ROWS {
+        for (t, rho) in TABLE_A4_DENSITY {
             let air = air_properties(t, 100_000.0).unwrap();
             assert!(rel(air.density_kg_per_m3, rho) < 0.002, "rho at {t} K");
         }
     }
 
     #[test]
-    fn sutherland_reference_point_is_exact() {
-        // At T = T₀ = 273 K Sutherland's law returns μ₀ and k₀ themselves
-        // (White 2006, Tables 1-2 and 1-3).
-        let air = air_properties(273.0, STANDARD_PRESSURE_PA).unwrap();
-        assert!(rel(air.dynamic_viscosity_pa_s, 1.716e-5) < 1e-14);
-        assert!(rel(air.thermal_conductivity_w_per_m_k, 0.0241) < 1e-14);
-    }
-
-    #[test]
-    fn specific_gas_constant_is_us1976_value() {
-        // Hand calculation: 8314.32 / 28.9644 = 287.0531 J/(kg·K).
-        assert!((SPECIFIC_GAS_CONSTANT_AIR_J_PER_KG_K - 287.0531).abs() < 1e-4);
-    }
-
-    #[test]
-    fn cp_interpolates_between_table_nodes() {
-        // Hand calculation, Table A.4 nodes 300 K (1007) and 350 K (1009):
-        // at 325 K, 1007 + 2·(25/50) = 1008 J/(kg·K).
+    fn cp_interpolates_linearly_between_nodes() {
+        // Invariant (not a published value): halfway between the 300 K and
+        // 350 K nodes (1007 and 1009) the linear interpolation gives their
+        // mean, 1008 J/(kg·K).
         let air = air_properties(325.0, STANDARD_PRESSURE_PA).unwrap();
         assert!((air.specific_heat_j_per_kg_k - 1008.0).abs() < 1e-9);
     }
 
     #[test]
     fn pressure_at_altitude_matches_us_standard_atmosphere_1976() {
-        // U.S. Standard Atmosphere 1976, Table I (geometric altitude), values
-        // recalled (memory): 0 m 101325 Pa, 1000 m 89876 Pa, 2000 m 79501 Pa,
-        // 5000 m 54048 Pa, 11000 m 22700 Pa.
+        // U.S. Standard Atmosphere 1976, Table I (geometric altitude):
+        // 0 m 101325 Pa, 1000 m 89876 Pa, 2000 m 79501 Pa, 5000 m 54048 Pa,
+        // 11000 m 22700 Pa (first recalled from memory, then checked to 4
+        // figures against a reprinted table and a published evaluation of
+        // the 1976 formulas).
         for (z, p) in [
             (0.0, 101_325.0),
             (1000.0, 89_876.0),

@@ -700,7 +700,7 @@ mod tests {
     fn churchill_bernstein_example_7_4_through_the_model() {
         // Same example: D = 12.7 mm, L = 94 mm, V = 10 m/s, T_∞ = 26.2 °C,
         // T_s = 128.4 °C; book h ≈ 96.0 W/(m²·K) from Table A.4 properties.
-        // Our properties (Sutherland) differ from the table by < 2 %, and the
+        // Our properties (Lemmon & Jacobsen) differ from the table by < 2 %, and the
         // free-convection term adds < 0.01 % here.
         let cyl = CylinderInCrossFlow::new(
             0.0127,
