@@ -444,11 +444,12 @@ mod tests {
         .unwrap();
         let law = ResistanceLaw::Table(t);
         assert_eq!(law.valid_range_k(), (T0C, T0C + 200.0));
-        assert_relative_eq!(
-            law.resistance_ohm(T0C + 100.0),
-            138.51,
-            max_relative = 1e-12
-        );
+        // Between the rows, against IEC 60751's printed 119.40 Ω (50 °C)
+        // and 157.33 Ω (150 °C), which the table does not hold: the
+        // interpolation through three rows is 0.07 Ω low at both (about
+        // 0.2 K); within 0.1 Ω.
+        assert!((law.resistance_ohm(T0C + 50.0) - 119.40).abs() < 0.1);
+        assert!((law.resistance_ohm(T0C + 150.0) - 157.33).abs() < 0.1);
         assert!(law.derivative_ohm_per_k(T0C + 50.0) > 0.0);
         let bad = ResistanceTable::new(vec![300.0, 310.0, 320.0], vec![100.0, 104.0, 103.0]);
         let msg = bad.unwrap_err().to_string();
@@ -457,12 +458,14 @@ mod tests {
 
     #[test]
     fn tungsten_ratio_follows_forsythe_worthing() {
-        // Forsythe & Worthing (1925): ρ(1000 K)/ρ(300 K) = 24.93/5.65.
+        // Forsythe & Worthing (1925): ρ(1200 K)/ρ(300 K) = 30.98/5.65, the
+        // 1200 K row, which the tungsten module does not hold (found
+        // +0.12 %).
         let law = ResistanceLaw::Tungsten(TungstenWire::new(1.0, 300.0).unwrap());
         assert_relative_eq!(
-            law.resistance_ohm(1000.0),
-            24.93 / 5.65,
-            max_relative = 1e-9
+            law.resistance_ohm(1200.0),
+            30.98 / 5.65,
+            max_relative = 2e-3
         );
         assert_eq!(law.valid_range_k(), (273.15, 3500.0));
     }

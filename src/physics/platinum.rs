@@ -174,12 +174,13 @@ mod tests {
 
     #[test]
     fn pt100_table_values() {
-        // IEC 60751 Pt100 reference table: −100 °C 60.26 Ω, 0 °C 100.00 Ω,
-        // 50 °C 119.40 Ω, 100 °C 138.51 Ω, 200 °C 175.86 Ω, 400 °C 247.09 Ω.
+        // IEC 60751 Pt100 reference table: −200 °C 18.52 Ω, −100 °C 60.26 Ω,
+        // 50 °C 119.40 Ω, 100 °C 138.51 Ω, 200 °C 175.86 Ω, 400 °C 247.09 Ω
+        // (−200 °C exercises the C term; 0 °C is R0 itself, not a check).
         let pt100 = CallendarVanDusen::iec60751(100.0).unwrap();
         for (t_c, r_table) in [
+            (-200.0, 18.52),
             (-100.0, 60.26),
-            (0.0, 100.00),
             (50.0, 119.40),
             (100.0, 138.51),
             (200.0, 175.86),
@@ -191,12 +192,15 @@ mod tests {
 
     #[test]
     fn derivative_continuous_at_zero_celsius() {
-        // Both branches give R0·A = 0.39083 Ω/K at 0 °C.
+        // Invariant: both branches meet in slope at 0 °C.
         let pt100 = CallendarVanDusen::iec60751(100.0).unwrap();
         let below = pt100.derivative_ohm_per_k(273.15 - 1e-9);
         let above = pt100.derivative_ohm_per_k(273.15);
-        assert_abs_diff_eq!(above, 100.0 * IEC60751_A, epsilon = 1e-12);
         assert_abs_diff_eq!(below, above, epsilon = 1e-9);
+        // Against IEC 60751's printed rows at ±10 °C (96.09 and 103.90 Ω):
+        // a central difference of 0.3905 Ω/K, good to two roundings of
+        // 0.005 Ω over 20 K (5e-4 Ω/K); found 0.39083.
+        assert_abs_diff_eq!(above, (103.90 - 96.09) / 20.0, epsilon = 6e-4);
     }
 
     #[test]
