@@ -315,9 +315,10 @@ pub enum MixingRule {
     InterceptRemoved,
     /// The Churchill–Usagi power mean of the full terms, `Nu^m = Nu_F^m +
     /// Nu_N^m` (S. W. Churchill & R. Usagi, AIChE J. 18 (1972) 1121–1128;
-    /// as used for mixed convection in Incropera 6th ed. eq. 9.64, where an
-    /// exponent of 3 is the usual choice for assisting and transverse flow;
-    /// *memory*). At U = 0 it keeps the forced intercept as well.
+    /// for mixed convection Çengel & Ghajar, *Heat and Mass Transfer*,
+    /// eq. 9-66, and Incropera 6th ed. eq. 9.64: the + sign for assisting
+    /// and transverse flow, an exponent of 3 to 4). At U = 0 it keeps the
+    /// forced intercept as well.
     ChurchillUsagi {
         /// The exponent m (≥ 1).
         exponent: f64,
