@@ -521,3 +521,92 @@ fn extrapolation_beyond_the_calibrated_range_is_measured() {
         r.warnings
     );
 }
+
+/// The still-air floor (issue 11): "natural" puts the free-convection
+/// velocity at the drive's still-air rise on King's law, states it, and
+/// moves the trip point only near still air; a velocity is taken as given;
+/// geometry cooling, a drive without an overheat target and a word that is
+/// neither are refused with the field named.
+#[test]
+fn still_air_floor_is_stated_and_used() {
+    use draftwire::design::overrides::Override;
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+        .join("examples/workshop-door-draught.toml");
+    let text = std::fs::read_to_string(path).unwrap();
+    let with = |o: &[&str]| {
+        let o: Vec<Override> = o.iter().map(|s| Override::parse(s).unwrap()).collect();
+        draftwire::design::parse_design_with("w.toml", &text, &o)
+    };
+    let bare = with(&[]).unwrap();
+    let natural = with(&["element.cooling.still_air_floor=natural"]).unwrap();
+    let given = with(&["element.cooling.still_air_floor=4 cm/s"]).unwrap();
+    let floor = |d: &draftwire::design::model::Design| {
+        d.element
+            .cooling_law()
+            .kings_form()
+            .unwrap()
+            .still_air_floor_m_per_s()
+    };
+    assert_eq!(floor(&bare), 0.0);
+    assert_eq!(floor(&given), 0.04);
+    // Hand calculation for the example's 100 K rise at its nominal ambient
+    // (20 °C): about 3.9 cm/s (see free_convection_velocity_by_hand).
+    let u_n = floor(&natural);
+    assert!((0.035..0.043).contains(&u_n), "{u_n}");
+    assert!(natural
+        .assumptions
+        .iter()
+        .any(|a| a.contains("still_air_floor = \"natural\"") && a.contains("mm/s")));
+    let r_bare = draftwire::analysis::size(&bare).unwrap();
+    let r_nat = draftwire::analysis::size(&natural).unwrap();
+    assert!(
+        r_bare.element.contains("no still-air floor"),
+        "{}",
+        r_bare.element
+    );
+    assert!(
+        r_nat.element.contains("still-air floor"),
+        "{}",
+        r_nat.element
+    );
+    assert!(!r_nat.element.contains("no still-air floor"));
+    // The drive is sized for the same 100 K still-air rise; the floor adds
+    // B·U_Nⁿ of still-air conductance, so it takes more current to get
+    // there.
+    let row = |r: &draftwire::report::Report, label: &str| {
+        r.operating_points
+            .iter()
+            .find(|p| p.label == label)
+            .map(|p| (p.element_temperature_c, p.element_current_a))
+            .unwrap()
+    };
+    let (t_bare, i_bare) = row(&r_bare, "still air");
+    let (t_nat, i_nat) = row(&r_nat, "still air");
+    assert!((t_nat - t_bare).abs() < 1.0, "{t_nat} vs {t_bare}");
+    assert!(i_nat > 1.01 * i_bare, "{i_nat} vs {i_bare}");
+
+    let err = |o: &[&str]| with(o).unwrap_err().to_string();
+    let e = err(&["element.cooling.still_air_floor=bogus"]);
+    assert!(
+        e.contains("element.cooling.still_air_floor") && e.contains("natural"),
+        "{e}"
+    );
+    let e = err(&[
+        "element.cooling.still_air_floor=natural",
+        "drive.overheat_rise=",
+        "drive.series=100 ohm",
+    ]);
+    assert!(
+        e.contains("still_air_floor") || e.contains("overheat"),
+        "{e}"
+    );
+    let duct = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/duct-platinum-wire.toml"),
+    )
+    .unwrap();
+    let o = [Override::parse("element.cooling.still_air_floor=4 cm/s").unwrap()];
+    let e = draftwire::design::parse_design_with("d.toml", &duct, &o)
+        .unwrap_err()
+        .to_string();
+    assert!(e.contains("element.cooling.still_air_floor"), "{e}");
+}

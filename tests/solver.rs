@@ -229,7 +229,8 @@ proptest! {
 
     /// The trip airflow by inversion (King's law solved for U) equals the
     /// one found by the bracketed search, for random linear-TCR King's-law
-    /// designs under both drives and random levels — including levels
+    /// designs (with and without a still-air floor) under both drives and
+    /// random levels — including levels
     /// beyond still air or beyond the highest airflow, where both must say
     /// the level is not reached. The reference is the independent search
     /// (bracket + Brent on the full operating-point solve).
@@ -247,8 +248,13 @@ proptest! {
         use_current in any::<bool>(),
         u_level in 0.0f64..30.0,
         spill in -0.2f64..0.2,
+        floor_raw in -0.05f64..0.1,
     ) {
+        // A third of the cases without a still-air floor, the rest with a
+        // floor of up to 10 cm/s.
+        let floor = floor_raw.max(0.0);
         let el = element(r0, 293.15, alpha, a, b, n);
+        let el = el.with_cooling_law(el.cooling_law().with_still_air_floor(floor).unwrap());
         let env = Environment::at(ta);
         let drive = if use_current {
             Drive::ConstantCurrent { current_a: current }

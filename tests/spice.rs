@@ -54,8 +54,8 @@ fn ngspice_reproduces_every_example() {
     let mut failures = Vec::new();
     // Every example as it is, and variants for the stages and drives no
     // example uses (each a passing design): a PNP high-side switch, a
-    // constant-current drive, a buzzer driven directly from a rail above
-    // the comparator's.
+    // constant-current drive, King's law with a still-air floor, a buzzer
+    // driven directly from a rail above the comparator's.
     let mut cases: Vec<(String, std::path::PathBuf, Vec<&str>)> = Vec::new();
     for e in std::fs::read_dir(&dir).unwrap() {
         let path = e.unwrap().path();
@@ -79,6 +79,11 @@ fn ngspice_reproduces_every_example() {
             "drive.rail=",
             "drive.current=auto",
         ],
+    ));
+    cases.push((
+        "server, King's law with a still-air floor".into(),
+        server.clone(),
+        vec!["element.cooling.still_air_floor=natural"],
     ));
     cases.push((
         "server, buzzer from the input rail".into(),
@@ -160,7 +165,7 @@ fn ngspice_reproduces_every_example() {
         checked += 1;
     }
     let _ = std::fs::remove_dir_all(&tmp);
-    assert_eq!(checked, 8, "every example and variant checked");
+    assert_eq!(checked, 9, "every example and variant checked");
     assert!(
         failures.is_empty(),
         "ngspice disagrees:\n{}",

@@ -128,7 +128,7 @@ fn empty_row(label: &str, element: &Element, tol: f64) -> CompareRow {
         element: format!(
             "{}, {}",
             element.resistance_law().name(),
-            element.cooling_law().name()
+            element.cooling_law().summary()
         ),
         tolerance_percent: tol * 100.0,
         drive: String::new(),

@@ -76,7 +76,7 @@ pub fn size_full(design: &Design) -> Result<Sized, SizeError> {
     let element = format!(
         "{}, {}",
         design.element.resistance_law().name(),
-        design.element.cooling_law().name()
+        design.element.cooling_law().summary()
     );
     let mut warnings: Vec<String> = design.element.plausibility_warnings().to_vec();
     warnings.extend(divider_current_warning(design, &core));
@@ -281,7 +281,7 @@ pub fn unsized_report(design: &Design, error: &SizeError) -> Report {
         element: format!(
             "{}, {}",
             design.element.resistance_law().name(),
-            design.element.cooling_law().name()
+            design.element.cooling_law().summary()
         ),
         drive: match design.drive {
             crate::design::model::DriveSpec::SeriesResistor { .. } => {

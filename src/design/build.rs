@@ -6,6 +6,7 @@ use super::diagnostic::Diagnostic;
 use super::model::*;
 use super::raw::{self, Scalar, Value};
 use super::reader::{toml_error, Reader, R};
+use crate::element::Element;
 use crate::eseries::ESeries;
 use crate::quantity::{parse_quantity, Dimension};
 
@@ -62,6 +63,8 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         tolerance: drive_tolerance,
     } = build_drive(rd, &raw.drive, "drive", has_reg, e_series)?;
 
+    let element = natural_still_air_floor(rd, &raw.element, element, overheat, &ambient)?;
+
     let detector = build_detector(rd, &raw.detector, drive, has_reg, e_series)?;
     let reference_rail = detector.reference_rail;
 
@@ -101,6 +104,62 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         compensation,
         assumptions: std::mem::take(&mut rd.assumptions),
     })
+}
+
+/// `still_air_floor = "natural"`: the free-convection velocity
+/// (`physics::convection::free_convection_velocity_m_per_s`) at the drive's
+/// still-air overheat and the nominal ambient, put on the element's King's
+/// law. It needs the overheat target, which only a sized drive states.
+fn natural_still_air_floor(
+    rd: &mut Reader<'_>,
+    e: &raw::RawElement,
+    element: Element,
+    overheat: Option<OverheatTarget>,
+    ambient: &Ambient,
+) -> R<Element> {
+    let Some(c) = e.cooling.as_ref() else {
+        return Ok(element);
+    };
+    if super::element::still_air_floor_request(rd, c, "element")?
+        != Some(super::element::FloorRequest::Natural)
+    {
+        return Ok(element);
+    }
+    let field = "element.cooling.still_air_floor";
+    let span = c.still_air_floor.as_ref().map(|v| v.span());
+    let ta = ambient.nominal_k;
+    let law = element.resistance_law();
+    let rise = match overheat {
+        Some(OverheatTarget::Rise(r)) => Some(r),
+        Some(OverheatTarget::Ratio(x)) => law
+            .temperature_for_resistance(law.resistance_ohm(ta) * (1.0 + x))
+            .map(|t| t - ta),
+        None => None,
+    };
+    let Some(rise) = rise.filter(|r| r.is_finite() && *r > 0.0) else {
+        return Err(rd.err(
+            span,
+            field,
+            "\"natural\" needs the drive's still-air overheat (drive.overheat_rise or overheat_ratio with an \"auto\" drive); give the floor as a velocity instead, e.g. still_air_floor = \"4 cm/s\"".into(),
+        ));
+    };
+    let u =
+        crate::physics::convection::free_convection_velocity_m_per_s(rise, ta, ambient.pressure_pa)
+            .map_err(|er| rd.err(span.clone(), field, er.to_string()))?;
+    let Some(cooling) = element.cooling_law().with_still_air_floor(u) else {
+        return Err(rd.err(
+            span,
+            field,
+            "only King's law and the data-sheet form take a still-air floor; geometry cooling has its own natural-convection term".into(),
+        ));
+    };
+    rd.assumptions.push(format!(
+        "{field} = \"natural\": U_N = {:.1} mm/s, the free-convection velocity (g·ΔT·ν/T_f)^(1/3) at the drive's still-air rise of {:.0} K and {:.1} °C (Collis & Williams' Re < Gr^(1/3), written for the airflow)",
+        u * 1e3,
+        rise,
+        ta - 273.15
+    ));
+    Ok(element.with_cooling_law(cooling))
 }
 
 /// `[ambient]`: nominal, lowest and highest ambient and the air pressure.

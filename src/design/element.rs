@@ -472,7 +472,7 @@ fn resistance_keys(r: &raw::RawResistance) -> [Key; 10] {
 }
 
 /// Every optional key of `[element.cooling]`.
-fn cooling_keys(c: &raw::RawCooling) -> [Key; 18] {
+fn cooling_keys(c: &raw::RawCooling) -> [Key; 19] {
     [
         ("a", at(&c.a)),
         ("b", at(&c.b)),
@@ -495,6 +495,7 @@ fn cooling_keys(c: &raw::RawCooling) -> [Key; 18] {
         ),
         ("mixing", at(&c.mixing)),
         ("mixing_exponent", at(&c.mixing_exponent)),
+        ("still_air_floor", at(&c.still_air_floor)),
     ]
 }
 
@@ -761,7 +762,66 @@ fn points(
 
 type Derived = Option<(f64, String)>;
 
+/// What `still_air_floor` asks for.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub(crate) enum FloorRequest {
+    /// Given as a velocity, m/s (applied here).
+    Velocity(f64),
+    /// "natural": computed from the drive's overheat once it is known.
+    Natural,
+}
+
+/// The still-air floor asked for, if any: "none" (the default), "natural"
+/// or a velocity within its per-key range.
+pub(crate) fn still_air_floor_request(
+    rd: &mut Reader<'_>,
+    c: &raw::RawCooling,
+    p: &str,
+) -> R<Option<FloorRequest>> {
+    let field = format!("{p}.cooling.still_air_floor");
+    let Some(v) = &c.still_air_floor else {
+        return Ok(None);
+    };
+    if let raw::Scalar::Text(t) = v.get_ref() {
+        match t.trim().to_ascii_lowercase().as_str() {
+            "none" => return Ok(None),
+            "natural" => return Ok(Some(FloorRequest::Natural)),
+            _ => {}
+        }
+    }
+    let u = rd.positive(v, &field, Dimension::Velocity).map_err(|mut e| {
+        e.message = format!(
+            "{} (or \"none\", or \"natural\" for the free-convection velocity at the drive's overheat)",
+            e.message
+        );
+        e
+    })?;
+    Ok(Some(FloorRequest::Velocity(u)))
+}
+
 fn cooling(
+    rd: &mut Reader<'_>,
+    c: &raw::RawCooling,
+    p: &str,
+    material: Option<Material>,
+) -> R<(CoolingLaw, Derived)> {
+    let (law, derived) = cooling_law_of(rd, c, p, material)?;
+    match still_air_floor_request(rd, c, p)? {
+        Some(FloorRequest::Velocity(u)) => {
+            let floored = law.with_still_air_floor(u).ok_or_else(|| {
+                rd.err(
+                    c.still_air_floor.as_ref().map(|v| v.span()),
+                    &format!("{p}.cooling.still_air_floor"),
+                    "only King's law and the data-sheet form take a still-air floor; geometry cooling has its own natural-convection term".into(),
+                )
+            })?;
+            Ok((floored, derived))
+        }
+        _ => Ok((law, derived)),
+    }
+}
+
+fn cooling_law_of(
     rd: &mut Reader<'_>,
     c: &raw::RawCooling,
     p: &str,
@@ -775,7 +835,13 @@ fn cooling(
     let g = Dimension::ThermalConductance;
     match law {
         "king" => {
-            only(rd, &keys, &["a", "b", "n", "calibrated_range"], law, &pre)?;
+            only(
+                rd,
+                &keys,
+                &["a", "b", "n", "calibrated_range", "still_air_floor"],
+                law,
+                &pre,
+            )?;
             let a = rd.non_negative(
                 req(
                     rd,
@@ -814,6 +880,7 @@ fn cooling(
                     "dissipation_moving",
                     "moving_airflow",
                     "time_constant",
+                    "still_air_floor",
                 ],
                 law,
                 &pre,

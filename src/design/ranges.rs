@@ -421,6 +421,13 @@ pub const KEY_RANGES: &[KeyRange] = &[
     row!("cooling.wire_diameter", Length, 1e-6, 5e-3, "a coil's wire"),
     row!("cooling.wire_length", Length, 1e-4, 10.0, "a coil's wire"),
     row!(
+        "cooling.still_air_floor",
+        Velocity,
+        1e-3,
+        0.5,
+        "a natural-convection velocity (about 4 cm/s for a 100 K rise)"
+    ),
+    row!(
         "cooling.supports",
         ThermalConductance,
         0.0,

@@ -255,6 +255,9 @@ pub struct RawCooling {
     pub supports: Option<Value>,
     /// The airflow range King's constants were calibrated over.
     pub calibrated_range: Option<Spanned<Vec<Value>>>,
+    /// King or data-sheet form: the still-air floor, "none", "natural" or
+    /// a velocity.
+    pub still_air_floor: Option<Value>,
     /// Geometry cooling: how the forced and natural terms are combined.
     pub mixing: Option<Word>,
     /// Geometry cooling: the Churchill–Usagi exponent.

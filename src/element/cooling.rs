@@ -40,11 +40,23 @@ pub enum CoolingLawError {
 /// of fluid", Phil. Trans. R. Soc. A 214 (1914) 373–432. King's theory gives
 /// n = 0.5; calibrations commonly find n ≈ 0.45. `B` is the conductance
 /// added at U = 1 m/s, so U is taken in m/s.
+///
+/// **Still-air floor** (optional, `still_air_floor_m_per_s` > 0): near still
+/// air A + B·Uⁿ has an infinite slope at U → 0, where free convection, not
+/// the airflow, sets the loss. With a floor U_N the airflow term becomes
+/// B·(U² + U_N²)^(n/2): the airflow and a natural-convection velocity added
+/// as perpendicular vectors, the form of the effective-velocity methods for
+/// cross flow over horizontal cylinders (the concept: Lemlich & Hoke 1956,
+/// as described by S. W. Churchill, Ind. Eng. Chem. Res. 2014; draftwire's
+/// construction, not a published correlation). The slope at U = 0 is then
+/// zero, the still-air conductance A + B·U_Nⁿ, and well above U_N the law
+/// is King's within (n/2)·(U_N/U)².
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct KingsLaw {
     a_w_per_k: f64,
     b_w_per_k: f64,
     n: f64,
+    still_air_floor_m_per_s: f64,
 }
 
 impl KingsLaw {
@@ -70,9 +82,26 @@ impl KingsLaw {
             a_w_per_k,
             b_w_per_k,
             n,
+            still_air_floor_m_per_s: 0.0,
         })
     }
-    /// A, the still-air conductance (W/K).
+    /// The same law with a still-air floor U_N (m/s; 0 for none). A value
+    /// that is not finite and ≥ 0 leaves the law unchanged.
+    pub fn with_still_air_floor(self, floor_m_per_s: f64) -> Self {
+        if !(floor_m_per_s.is_finite() && floor_m_per_s >= 0.0) {
+            return self;
+        }
+        Self {
+            still_air_floor_m_per_s: floor_m_per_s,
+            ..self
+        }
+    }
+    /// The still-air floor U_N, m/s (0: none, King's law extrapolated to
+    /// still air).
+    pub fn still_air_floor_m_per_s(&self) -> f64 {
+        self.still_air_floor_m_per_s
+    }
+    /// A, the still-air conductance without a floor (W/K).
     pub fn a_w_per_k(&self) -> f64 {
         self.a_w_per_k
     }
@@ -85,21 +114,52 @@ impl KingsLaw {
         self.n
     }
     /// The airflow at which the conductance is `g` (W/K), King's law
-    /// inverted: `U = ((G − A)/B)^(1/n)`; `None` when `G < A` (less than
-    /// still air gives) or the result is not finite.
+    /// inverted: `U = ((G − A)/B)^(1/n)`, or with a floor
+    /// `U = √(((G − A)/B)^(2/n) − U_N²)`; `None` when G is below what still
+    /// air gives or the result is not finite.
     pub fn airflow_for_conductance(&self, g_w_per_k: f64) -> Option<f64> {
         let x = (g_w_per_k - self.a_w_per_k) / self.b_w_per_k;
         if x.is_nan() || x < 0.0 {
             return None;
         }
-        let u = x.powf(1.0 / self.n);
+        let uf = self.still_air_floor_m_per_s;
+        let u = if uf == 0.0 {
+            x.powf(1.0 / self.n)
+        } else {
+            let s = x.powf(2.0 / self.n) - uf * uf;
+            if s.is_nan() || s < 0.0 {
+                return None;
+            }
+            s.sqrt()
+        };
         u.is_finite().then_some(u)
     }
 
-    /// G(U) = A + B·Uⁿ, U in m/s (negative U taken as |U|).
+    /// G(U) = A + B·Uⁿ, or A + B·(U² + U_N²)^(n/2) with a floor; U in m/s
+    /// (negative U taken as |U|).
     #[inline]
     pub fn conductance_w_per_k(&self, airflow_m_per_s: f64) -> f64 {
-        self.a_w_per_k + self.b_w_per_k * airflow_m_per_s.abs().powf(self.n)
+        let uf = self.still_air_floor_m_per_s;
+        let term = if uf == 0.0 {
+            airflow_m_per_s.abs().powf(self.n)
+        } else {
+            (airflow_m_per_s * airflow_m_per_s + uf * uf).powf(0.5 * self.n)
+        };
+        self.a_w_per_k + self.b_w_per_k * term
+    }
+
+    /// dG/dU (W/K per m/s): B·n·U^(n−1), infinite as U → 0 (taken at the
+    /// smallest positive U there); with a floor B·n·U·(U² + U_N²)^(n/2 − 1),
+    /// zero at U = 0.
+    pub fn dconductance_du(&self, airflow_m_per_s: f64) -> f64 {
+        let uf = self.still_air_floor_m_per_s;
+        let u = airflow_m_per_s.abs();
+        if uf == 0.0 {
+            let u = u.max(f64::MIN_POSITIVE);
+            self.b_w_per_k * self.n * u.powf(self.n - 1.0)
+        } else {
+            self.b_w_per_k * self.n * u * (u * u + uf * uf).powf(0.5 * self.n - 1.0)
+        }
     }
 }
 
@@ -372,6 +432,20 @@ impl CoolingLaw {
         }
     }
 
+    /// This law with a still-air floor U_N (m/s) on its airflow term
+    /// ([`KingsLaw`]); `None` for geometry cooling, which has a natural-
+    /// convection term of its own.
+    pub fn with_still_air_floor(&self, floor_m_per_s: f64) -> Option<CoolingLaw> {
+        match self {
+            CoolingLaw::King(k) => Some(CoolingLaw::King(k.with_still_air_floor(floor_m_per_s))),
+            CoolingLaw::Datasheet(d) => Some(CoolingLaw::Datasheet(DissipationLaw {
+                king: d.king.with_still_air_floor(floor_m_per_s),
+                ..*d
+            })),
+            CoolingLaw::Geometry(_) => None,
+        }
+    }
+
     /// This law with its airflow term scaled by `factor` (a model
     /// tolerance on the cooling: King's `B`, the data-sheet form's flow
     /// term); `None` for geometry cooling, whose forced term comes from a
@@ -478,14 +552,11 @@ impl CoolingLaw {
     }
 
     /// ∂P_loss/∂U (W per m/s); for U = 0 the one-sided limit is infinite
-    /// for King (n < 1) and for the forced correlations (Nu − Nu₀ ∝ Re^½),
+    /// for King without a still-air floor (n < 1) and for the forced correlations (Nu − Nu₀ ∝ Re^½),
     /// so callers evaluate it at U > 0. Geometry: central difference with
     /// step `FD_REL_STEP·max(|U|, 0.01 m/s)`, forward at U = 0.
     pub fn d_heat_loss_du(&self, t_k: f64, airflow_m_per_s: f64, env: &Environment) -> f64 {
-        let king_du = |k: &KingsLaw| {
-            let u = airflow_m_per_s.abs().max(f64::MIN_POSITIVE);
-            k.b_w_per_k * k.n * u.powf(k.n - 1.0) * (t_k - env.ambient_k)
-        };
+        let king_du = |k: &KingsLaw| k.dconductance_du(airflow_m_per_s) * (t_k - env.ambient_k);
         match self {
             CoolingLaw::King(k) => king_du(k),
             CoolingLaw::Datasheet(d) => king_du(&d.king),
@@ -493,6 +564,24 @@ impl CoolingLaw {
                 let u = airflow_m_per_s.abs();
                 central_difference(|v| g.loss_w(t_k, v, env), u, u.max(0.01), 0.0)
             }
+        }
+    }
+
+    /// The name with what the law does near still air, for reports: King's
+    /// law and the data-sheet form state their still-air floor, or that they
+    /// are extrapolated to still air without one.
+    pub fn summary(&self) -> String {
+        match self.kings_form() {
+            Some(k) if k.still_air_floor_m_per_s() > 0.0 => format!(
+                "{}, still-air floor {:.1} mm/s",
+                self.name(),
+                k.still_air_floor_m_per_s() * 1e3
+            ),
+            Some(_) => format!(
+                "{}, no still-air floor (extrapolated to U = 0)",
+                self.name()
+            ),
+            None => self.name().to_string(),
         }
     }
 
@@ -661,6 +750,59 @@ impl CoolingLaw {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn still_air_floor_limits() {
+        // Hand calculation: A = 1.2 mW/K, B = 2.4 mW/K, n = 0.45,
+        // U_N = 4 cm/s: G(0) = A + B·0.04^0.45 = 1.76382 mW/K.
+        let k = KingsLaw::new(1.2e-3, 2.4e-3, 0.45)
+            .unwrap()
+            .with_still_air_floor(0.04);
+        assert_relative_eq!(
+            k.conductance_w_per_k(0.0),
+            1.763_817e-3,
+            max_relative = 1e-6
+        );
+        // The slope is zero at still air and finite near it; without the
+        // floor it grows without bound as U → 0.
+        assert_eq!(k.dconductance_du(0.0), 0.0);
+        assert!(k.dconductance_du(1e-6).is_finite() && k.dconductance_du(1e-6) < 1e-3);
+        let bare = KingsLaw::new(1.2e-3, 2.4e-3, 0.45).unwrap();
+        assert!(bare.dconductance_du(1e-9) > 1.0);
+        // Well above U_N the law is King's within (n/2)·(U_N/U)² of the
+        // airflow term.
+        for u in [0.5, 1.0, 3.0] {
+            let term = |law: &KingsLaw| law.conductance_w_per_k(u) - 1.2e-3;
+            let rel = term(&k) / term(&bare) - 1.0;
+            assert!(
+                rel > 0.0 && rel <= 0.5 * 0.45 * (0.04f64 / u).powi(2) * 1.0001,
+                "{u}: {rel}"
+            );
+        }
+        // A conductance below what still air gives has no airflow.
+        assert!(k.airflow_for_conductance(1.7e-3).is_none());
+        // At still air's own conductance: zero airflow (to rounding; the
+        // inversion subtracts U_N² from a value near U_N²).
+        assert!(
+            k.airflow_for_conductance(k.conductance_w_per_k(0.0))
+                .unwrap()
+                < 1e-6
+        );
+    }
+
+    proptest::proptest! {
+        /// Invariant: with a floor, the inversion returns the airflow the
+        /// conductance came from.
+        #[test]
+        fn still_air_floor_inverts(
+            a in 0.0f64..5e-3, b in 1e-4f64..1e-2, n in 0.2f64..1.0,
+            floor in 1e-3f64..0.3, u in 0.0f64..50.0,
+        ) {
+            let k = KingsLaw::new(a, b, n).unwrap().with_still_air_floor(floor);
+            let back = k.airflow_for_conductance(k.conductance_w_per_k(u)).unwrap();
+            proptest::prop_assert!((back - u).abs() <= 1e-9 * u.max(floor), "{u} -> {back}");
+        }
+    }
     use approx::assert_relative_eq;
 
     fn env() -> Environment {

@@ -150,6 +150,24 @@ fn collis_williams_branch(reynolds: f64) -> f64 {
     }
 }
 
+/// The airflow below which free convection dominates a horizontal wire,
+/// U_N = (g·β·ΔT·ν)^(1/3), m/s, with β = 1/T_f (ideal gas) and ν at the film
+/// temperature T_f = T_a + ΔT/2. It is Collis & Williams' (1959) criterion
+/// Re < Gr^(1/3) ("roughly speaking") written for the airflow: Re³ < Gr is
+/// U³d³/ν³ < g·β·ΔT·d³/ν², in which the diameter cancels.
+pub fn free_convection_velocity_m_per_s(
+    rise_k: f64,
+    ambient_k: f64,
+    pressure_pa: f64,
+) -> Result<f64, ConvectionError> {
+    let film_k = ambient_k + 0.5 * rise_k;
+    let air = air_properties(film_k, pressure_pa)?;
+    Ok(
+        (STANDARD_GRAVITY_M_PER_S2 * rise_k.max(0.0) / film_k * air.kinematic_viscosity_m2_per_s)
+            .cbrt(),
+    )
+}
+
 /// Churchill & Bernstein, J. Heat Transfer 99 (1977) 300–306:
 /// Nu = 0.3 + 0.62·Re^½·Pr^⅓ / [1 + (0.4/Pr)^⅔]^¼ · [1 + (Re/282000)^⅝]^⅘,
 /// film properties, Re·Pr ≥ 0.2 (Incropera 6th ed. eq. 7.54).
@@ -933,6 +951,22 @@ mod tests {
             nusselt_churchill_bernstein(re, 0.71)
         });
         assert!(rms < 0.07 && worst < 0.12, "C-B: rms {rms}, worst {worst}");
+    }
+
+    #[test]
+    fn free_convection_velocity_by_hand() {
+        // Hand calculation with ν from Incropera 6th ed. Table A.4 (15.89e-6
+        // at 300 K and 20.92e-6 m²/s at 350 K, linear at the 343.15 K film:
+        // 20.23e-6): a 100 K rise over 20 °C gives
+        // U_N = (9.80665 × 100 × 20.23e-6 / 343.15)^(1/3) = 0.03867 m/s.
+        // The code's ν (Lemmon & Jacobsen) differs by about 1 %.
+        let u = free_convection_velocity_m_per_s(100.0, 293.15, STANDARD_PRESSURE_PA).unwrap();
+        assert!(rel(u, 0.038_67) < 0.01, "{u}");
+        // U_N ∝ ΔT^(1/3) at a fixed film: no rise, no free convection.
+        assert_eq!(
+            free_convection_velocity_m_per_s(0.0, 293.15, STANDARD_PRESSURE_PA).unwrap(),
+            0.0
+        );
     }
 
     #[test]

@@ -127,6 +127,17 @@ fn heated_resistor(
 }
 
 fn king_expr(k: &KingsLaw) -> String {
+    let uf = k.still_air_floor_m_per_s();
+    if uf > 0.0 {
+        // With a still-air floor: A + B·(U² + U_N²)^(n/2).
+        return format!(
+            "{}+{}*pow(V(airflow)*V(airflow)+{},{})",
+            num(k.a_w_per_k()),
+            num(k.b_w_per_k()),
+            num(uf * uf),
+            num(0.5 * k.n())
+        );
+    }
     format!(
         "{}+{}*pow(max(V(airflow),1e-12),{})",
         num(k.a_w_per_k()),
