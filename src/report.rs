@@ -84,6 +84,24 @@ pub struct TripSummary {
     /// King's law and the data-sheet form, whose constants are the model).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub model_spread_m_per_s: Option<ModelSpread>,
+    /// A wire whose supports follow the fin model: their share of the loss
+    /// and the cold length, in still air and at the trip airflow (nominal
+    /// ambient).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub support_loss: Option<SupportLoss>,
+}
+
+/// The supports' share of the element's loss (fin model).
+#[derive(Debug, Clone, Copy, PartialEq, Serialize)]
+pub struct SupportLoss {
+    /// Share of the loss conducted into the supports in still air, 0 … 1.
+    pub share_still_air: f64,
+    /// Share at the trip airflow, 0 … 1.
+    pub share_at_trip: f64,
+    /// Cold length √(k_w·d/(4h)) in still air, mm.
+    pub cold_length_still_air_mm: f64,
+    /// Cold length at the trip airflow, mm.
+    pub cold_length_at_trip_mm: f64,
 }
 
 /// The trip airflow under every mixing rule of the convection model.

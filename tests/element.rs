@@ -610,3 +610,41 @@ fn still_air_floor_is_stated_and_used() {
         .to_string();
     assert!(e.contains("element.cooling.still_air_floor"), "{e}");
 }
+
+/// `supports = "fin"` (issue 11): the end loss follows the fin model, the
+/// report gives the supports' share, larger in still air than at the trip
+/// airflow; a bad value is refused with the field named (a coil's refusal
+/// is tested in `element::cooling`).
+#[test]
+fn fin_supports_are_reported() {
+    use draftwire::design::overrides::Override;
+    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples");
+    let duct = std::fs::read_to_string(dir.join("duct-platinum-wire.toml")).unwrap();
+    let o = [Override::parse("element.cooling.supports=fin").unwrap()];
+    let d = draftwire::design::parse_design_with("d.toml", &duct, &o).unwrap();
+    let r = draftwire::analysis::size(&d).unwrap();
+    let s = r.trip.support_loss.expect("a support-loss line");
+    assert!(s.share_still_air > s.share_at_trip && s.share_at_trip > 0.0);
+    assert!(s.share_still_air < 0.5);
+    // A long wire (L ≫ l_c) loses about 2·l_c/L to its ends.
+    let CoolingLaw::Geometry(g) = d.element.cooling_law() else {
+        panic!("geometry cooling")
+    };
+    let l_mm = g.cylinder().length_m() * 1e3;
+    assert!((s.share_at_trip - 2.0 * s.cold_length_at_trip_mm / l_mm).abs() < 0.01);
+    let plain = draftwire::design::parse_design("d.toml", &duct).unwrap();
+    assert!(draftwire::analysis::size(&plain)
+        .unwrap()
+        .trip
+        .support_loss
+        .is_none());
+    // A bad value names the field and offers "fin".
+    let o = [Override::parse("element.cooling.supports=fins").unwrap()];
+    let e = draftwire::design::parse_design_with("d.toml", &duct, &o)
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("element.cooling.supports") && e.contains("fin"),
+        "{e}"
+    );
+}

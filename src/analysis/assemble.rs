@@ -117,6 +117,7 @@ pub fn trip_summary(design: &Design, core: &SizedCore) -> TripSummary {
         inverting_input: minus,
         hysteresis_note,
         model_spread_m_per_s: None,
+        support_loss: None,
     }
 }
 

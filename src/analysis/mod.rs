@@ -160,12 +160,33 @@ pub fn size_full(design: &Design) -> Result<Sized, SizeError> {
     }
     let (spread, spread_warning) = model_spread::model_spread(design, &core, &report.trip);
     report.trip.model_spread_m_per_s = spread;
+    report.trip.support_loss = support_loss(design, &core);
     report.warnings.extend(spread_warning);
     wiring::apply(&mut report, design, &core, hold_off_to_rail);
     Ok(Sized {
         design: design.clone(),
         core,
         report: report.guarded().with_verdict(),
+    })
+}
+
+/// The supports' share of the loss in still air and at the trip airflow,
+/// for a wire whose supports follow the fin model.
+fn support_loss(design: &Design, core: &size::SizedCore) -> Option<crate::report::SupportLoss> {
+    let crate::element::CoolingLaw::Geometry(g) = design.element.cooling_law() else {
+        return None;
+    };
+    let (still, lc_still) = g.support_share(core.still_air.temperature_k, 0.0, &core.env)?;
+    let (trip, lc_trip) = g.support_share(
+        core.at_trip.temperature_k,
+        design.detector.trip_airflow_m_per_s,
+        &core.env,
+    )?;
+    Some(crate::report::SupportLoss {
+        share_still_air: still,
+        share_at_trip: trip,
+        cold_length_still_air_mm: lc_still * 1e3,
+        cold_length_at_trip_mm: lc_trip * 1e3,
     })
 }
 

@@ -1030,12 +1030,28 @@ fn cooling_law_of(
                     None
                 }
             };
-            let supports = rd.or_default(
-                &c.supports,
-                0.0,
-                &format!("{pre}.supports not given: no heat conducted to the supports"),
-                |r, v| r.non_negative(v, &f("supports"), g),
-            )?;
+            let fin = matches!(
+                c.supports.as_ref().map(|v| v.get_ref()),
+                Some(raw::Scalar::Text(t)) if t.trim().eq_ignore_ascii_case("fin")
+            );
+            let supports = if fin {
+                0.0
+            } else {
+                rd.or_default(
+                    &c.supports,
+                    0.0,
+                    &format!("{pre}.supports not given: no heat conducted to the supports"),
+                    |r, v| {
+                        r.non_negative(v, &f("supports"), g).map_err(|mut e| {
+                            e.message = format!(
+                                "{} (or \"fin\": the ends in supports at ambient, the end loss from the wire's conductivity)",
+                                e.message
+                            );
+                            e
+                        })
+                    },
+                )?
+            };
             if shape == Shape::CoilEnvelope {
                 rd.assumptions.push(format!(
                     "{pre}: the coil is treated as a solid cylinder of its envelope ({:.3} mm × {:.1} mm) for convection and radiation (simplification: the turns shade each other)",
@@ -1045,6 +1061,22 @@ fn cooling_law_of(
             }
             let geo = GeometryCooling::new(shape, d, l, m, forced, natural, emissivity, supports)
                 .map_err(|er| rd.err(Some(l_v.span()), &pre, er.to_string()))?;
+            let geo = if fin {
+                rd.assumptions.push(format!(
+                    "{pre}.supports = \"fin\": the wire's ends sit in supports at ambient; the end loss follows the fin model with the {} wire's thermal conductivity, {} W/(m·K) near 300 K",
+                    m.name(),
+                    m.thermal_conductivity_w_per_m_k()
+                ));
+                geo.with_fin_supports().map_err(|er| {
+                    rd.err(
+                        c.supports.as_ref().map(|v| v.span()),
+                        &f("supports"),
+                        er.to_string(),
+                    )
+                })?
+            } else {
+                geo
+            };
             let derived = match shape {
                 Shape::StraightWire => Some((
                     geo.wire_heat_capacity_j_per_k(),

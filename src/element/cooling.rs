@@ -267,7 +267,9 @@ pub enum Shape {
 /// ([`CylinderInCrossFlow`]: forced correlation, natural floor, power-mean
 /// mixing), radiation `ε(T)·σ·A·(T⁴ − T_amb⁴)` (Incropera et al., 6th ed.,
 /// eq. 1.7; surroundings at ambient), and optional conduction to the
-/// supports as a fixed conductance `G_s·(T − T_amb)`.
+/// supports: a fixed conductance `G_s·(T − T_amb)`, or for a straight wire
+/// the fin model ([`end_loss_share`]), whose share of the loss follows the
+/// airflow.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct GeometryCooling {
     cylinder: CylinderInCrossFlow,
@@ -275,6 +277,33 @@ pub struct GeometryCooling {
     material: Material,
     emissivity_override: Option<f64>,
     support_w_per_k: f64,
+    fin_supports: bool,
+}
+
+/// The share of the electrical power a uniformly heated wire of length L
+/// conducts into two supports held at ambient, `tanh(a)/a` with
+/// `a = L/(2·l_c)` and the cold length `l_c = √(k_w·d/(4h))`: the straight
+/// fin with uniform heat generation and both ends at the base temperature
+/// (Incropera et al., 6th ed., §3.6, the fin equation
+/// d²θ/dx² − θ/l_c² = −q'/(k_w·A_c), solved with θ = 0 at x = ±L/2):
+/// θ(x) = θ_∞·(1 − cosh(x/l_c)/cosh(a)), θ_∞ = q'/(h·π·d), whose mean is
+/// θ_∞·(1 − tanh(a)/a). The lateral loss is h·π·d·L·θ_mean, so the ends
+/// take tanh(a)/a of q'·L. `h` is the lateral heat-transfer coefficient
+/// (convection and linearised radiation), W/(m²·K).
+pub fn end_loss_share(h_w_per_m2_k: f64, k_wire_w_per_m_k: f64, d_m: f64, l_m: f64) -> f64 {
+    let cold_length = (k_wire_w_per_m_k * d_m / (4.0 * h_w_per_m2_k)).sqrt();
+    let a = 0.5 * l_m / cold_length;
+    if a < 1e-4 {
+        // tanh(a)/a = 1 − a²/3 + … : all the heat goes to the ends.
+        return 1.0 - a * a / 3.0;
+    }
+    a.tanh() / a
+}
+
+/// The cold length `l_c = √(k_w·d/(4h))`, m (the fin parameter 1/m of
+/// Incropera et al., §3.6, for a cylinder: m² = h·P/(k·A_c) = 4h/(k·d)).
+pub fn cold_length_m(h_w_per_m2_k: f64, k_wire_w_per_m_k: f64, d_m: f64) -> f64 {
+    (k_wire_w_per_m_k * d_m / (4.0 * h_w_per_m2_k)).sqrt()
 }
 
 impl GeometryCooling {
@@ -323,7 +352,65 @@ impl GeometryCooling {
             material,
             emissivity_override,
             support_w_per_k,
+            fin_supports: false,
         })
+    }
+    /// The same wire with its ends in supports held at ambient, the end
+    /// loss from the fin model instead of a fixed conductance. A straight
+    /// wire only (a coil's turns do not conduct along one axis).
+    pub fn with_fin_supports(self) -> Result<Self, CoolingLawError> {
+        if self.shape != Shape::StraightWire {
+            return Err(CoolingLawError::Geometry {
+                message: "the fin model of the supports needs a straight wire (law = \"wire\")"
+                    .into(),
+            });
+        }
+        Ok(Self {
+            fin_supports: true,
+            support_w_per_k: 0.0,
+            ..self
+        })
+    }
+    /// Whether the supports follow the fin model.
+    pub fn fin_supports(&self) -> bool {
+        self.fin_supports
+    }
+    /// The lateral loss (convection + radiation) at `t_k`, W, and with the
+    /// fin model the share of the total that goes to the supports and the
+    /// cold length (m); `None` outside the convection model's domain.
+    fn lateral_and_share(&self, t_k: f64, u: f64, env: &Environment) -> Option<(f64, f64, f64)> {
+        let conv = self.convection(t_k, u, env)?.heat_loss_w;
+        let rad = radiative_loss_w(
+            self.cylinder.surface_area_m2(),
+            self.emissivity(t_k),
+            t_k,
+            env.ambient_k,
+        );
+        let lateral = conv + rad;
+        if !self.fin_supports {
+            return Some((lateral, 0.0, f64::INFINITY));
+        }
+        let rise = t_k - env.ambient_k;
+        if rise == 0.0 || lateral == 0.0 {
+            return Some((lateral, 0.0, f64::INFINITY));
+        }
+        let h = lateral / (rise * self.cylinder.surface_area_m2());
+        let (k, d, l) = (
+            self.material.thermal_conductivity_w_per_m_k(),
+            self.cylinder.diameter_m(),
+            self.cylinder.length_m(),
+        );
+        Some((lateral, end_loss_share(h, k, d, l), cold_length_m(h, k, d)))
+    }
+    /// With the fin model: the supports' share of the loss and the cold
+    /// length (m) at `t_k` and airflow `u`; `None` for a fixed support
+    /// conductance.
+    pub fn support_share(&self, t_k: f64, u: f64, env: &Environment) -> Option<(f64, f64)> {
+        if !self.fin_supports {
+            return None;
+        }
+        self.lateral_and_share(t_k, u, env)
+            .map(|(_, share, lc)| (share, lc))
     }
     /// The convecting cylinder.
     pub fn cylinder(&self) -> &CylinderInCrossFlow {
@@ -366,17 +453,18 @@ impl GeometryCooling {
     /// Total loss, W; NaN only when the convection model refuses its input
     /// (T or ambient not above 0 K, a bad pressure), which the solver then
     /// reports as a numerical failure.
+    ///
+    /// With the fin model `t_k` is the wire's mean temperature (the one its
+    /// resistance gives, exactly for a linear law) and the ends take
+    /// `tanh(a)/a` of the power ([`end_loss_share`]): loss = lateral/(1 − share).
     fn loss_w(&self, t_k: f64, u: f64, env: &Environment) -> f64 {
-        let conv = self
-            .convection(t_k, u, env)
-            .map_or(f64::NAN, |c| c.heat_loss_w);
-        let rad = radiative_loss_w(
-            self.cylinder.surface_area_m2(),
-            self.emissivity(t_k),
-            t_k,
-            env.ambient_k,
-        );
-        conv + rad + self.support_w_per_k * (t_k - env.ambient_k)
+        let Some((lateral, share, _)) = self.lateral_and_share(t_k, u, env) else {
+            return f64::NAN;
+        };
+        if self.fin_supports {
+            return lateral / (1.0 - share);
+        }
+        lateral + self.support_w_per_k * (t_k - env.ambient_k)
     }
 }
 
@@ -393,9 +481,46 @@ impl GeometryCooling {
             t_k,
             env.ambient_k,
         );
-        let convective = loss_w - rad - self.support_w_per_k * (t_k - env.ambient_k);
+        let convective = if self.fin_supports {
+            self.convective_for_fin_loss(t_k, loss_w, rad, env)?
+        } else {
+            loss_w - rad - self.support_w_per_k * (t_k - env.ambient_k)
+        };
         self.cylinder
             .airflow_for_convective_loss(convective, t_k, env.ambient_k, env.pressure_pa)
+    }
+
+    /// With the fin model: the convective loss that, with radiation `rad`
+    /// and the ends' share, makes the total `loss_w` at `t_k`. The total
+    /// lateral/(1 − share) rises with the lateral loss (the cold length
+    /// shortens as h grows), so Brent's method on 0 … loss_w finds it;
+    /// `None` when even no convection would lose more.
+    fn convective_for_fin_loss(
+        &self,
+        t_k: f64,
+        loss_w: f64,
+        rad: f64,
+        env: &Environment,
+    ) -> Option<f64> {
+        let rise = t_k - env.ambient_k;
+        let area = self.cylinder.surface_area_m2();
+        let (k, d, l) = (
+            self.material.thermal_conductivity_w_per_m_k(),
+            self.cylinder.diameter_m(),
+            self.cylinder.length_m(),
+        );
+        let total = |conv: f64| {
+            let lateral = conv + rad;
+            if lateral <= 0.0 {
+                return -loss_w;
+            }
+            let share = end_loss_share(lateral / (rise * area), k, d, l);
+            lateral / (1.0 - share) - loss_w
+        };
+        if !(rise > 0.0 && loss_w > 0.0) || total(0.0) > 0.0 {
+            return None;
+        }
+        crate::roots::brent(total, 0.0, loss_w).ok().map(|r| r.x)
     }
 }
 
@@ -807,6 +932,94 @@ mod tests {
 
     fn env() -> Environment {
         Environment::at(293.15)
+    }
+
+    #[test]
+    fn fin_end_loss_hand_worked_and_against_the_fin_equation() {
+        // Hand-worked case: platinum (k = 71.6 W/(m·K)), d = 25 µm,
+        // L = 2 mm, h = 500 W/(m²·K): l_c = √(71.6·25e-6/2000) = 0.94604 mm,
+        // a = 1 mm/0.94604 mm = 1.05703, tanh a = 0.78453, share
+        // tanh(a)/a = 0.74220.
+        let (k, d, l, h) = (71.6, 25e-6, 2e-3, 500.0);
+        assert_relative_eq!(cold_length_m(h, k, d), 0.946_04e-3, max_relative = 1e-5);
+        assert_relative_eq!(end_loss_share(h, k, d, l), 0.742_20, max_relative = 1e-5);
+        // Independent evaluation: the fin equation θ'' − θ/l_c² = −θ_∞/l_c²
+        // with θ(±L/2) = 0 solved by second-order finite differences
+        // (tridiagonal, Thomas algorithm); the ends' share is 1 − mean θ/θ_∞.
+        let lc = cold_length_m(h, k, d);
+        let n = 4001;
+        let dx = l / (n - 1) as f64;
+        let m = n - 2; // interior nodes
+        let (diag, off, rhs) = (-2.0 - dx * dx / (lc * lc), 1.0, -dx * dx / (lc * lc));
+        let mut c = vec![0.0; m];
+        let mut dd = vec![0.0; m];
+        c[0] = off / diag;
+        dd[0] = rhs / diag;
+        for i in 1..m {
+            let den = diag - off * c[i - 1];
+            c[i] = off / den;
+            dd[i] = (rhs - off * dd[i - 1]) / den;
+        }
+        let mut theta = vec![0.0; m];
+        theta[m - 1] = dd[m - 1];
+        for i in (0..m - 1).rev() {
+            theta[i] = dd[i] - c[i] * theta[i + 1];
+        }
+        // Trapezoid mean over [−L/2, L/2] with θ = 0 at both ends.
+        let mean = theta.iter().sum::<f64>() * dx / l;
+        assert_relative_eq!(1.0 - mean, end_loss_share(h, k, d, l), max_relative = 1e-5);
+        // The limits: a long wire loses little to its ends (about l_c/(L/2)),
+        // a short one nearly all.
+        assert_relative_eq!(
+            end_loss_share(h, k, d, 1.0),
+            2.0 * lc / 1.0,
+            max_relative = 1e-9
+        );
+        assert!(end_loss_share(h, k, d, 1e-7) > 0.999_999);
+    }
+
+    #[test]
+    fn fin_supports_follow_the_airflow_and_invert() {
+        let CoolingLaw::Geometry(g) = wire() else {
+            unreachable!()
+        };
+        let fin = g.with_fin_supports().unwrap();
+        let e = env();
+        let t = 450.0;
+        let (still, lc0) = fin.support_share(t, 0.0, &e).unwrap();
+        let (fast, lc5) = fin.support_share(t, 5.0, &e).unwrap();
+        // More airflow, higher h, a shorter cold length, a smaller share.
+        assert!(fast < still && lc5 < lc0, "{still} {fast} {lc0} {lc5}");
+        assert!(still > 0.0 && still < 0.2);
+        // The total is the lateral loss over (1 − share).
+        let fixed = GeometryCooling {
+            support_w_per_k: 0.0,
+            ..g
+        };
+        let lateral = fixed.loss_w(t, 5.0, &e);
+        assert_relative_eq!(
+            fin.loss_w(t, 5.0, &e),
+            lateral / (1.0 - fast),
+            max_relative = 1e-12
+        );
+        // The trip inversion returns the airflow the loss came from.
+        for u in [0.05, 0.3, 2.0, 10.0] {
+            let back = fin.airflow_for_loss(t, fin.loss_w(t, u, &e), &e).unwrap();
+            assert_relative_eq!(back, u, max_relative = 1e-7);
+        }
+        // A coil envelope has no fin model.
+        let coil = GeometryCooling::new(
+            Shape::CoilEnvelope,
+            0.5e-3,
+            3e-3,
+            Material::Tungsten,
+            ForcedCorrelation::CollisWilliams,
+            NaturalCorrelation::Morgan,
+            None,
+            0.0,
+        )
+        .unwrap();
+        assert!(coil.with_fin_supports().is_err());
     }
 
     fn wire() -> CoolingLaw {

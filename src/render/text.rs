@@ -417,6 +417,18 @@ pub fn render_with(r: &Report, file: &str, width: usize, unit: AirflowUnit) -> S
             ),
         ));
     }
+    if let Some(s) = &tr.support_loss {
+        trip_lines.push((
+            "supports take",
+            format!(
+                "{:.1} % of the loss in still air, {:.1} % at the trip airflow (fin model; cold length {:.2} mm and {:.2} mm)",
+                100.0 * s.share_still_air,
+                100.0 * s.share_at_trip,
+                s.cold_length_still_air_mm,
+                s.cold_length_at_trip_mm
+            ),
+        ));
+    }
     key_values(&mut out, &trip_lines);
     out.push_str(&wrap(&air.prose(&tr.hysteresis_note), "  ", "  ", width));
 
