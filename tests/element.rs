@@ -479,7 +479,7 @@ fn mixing_rules_are_read_and_the_trip_is_spread_over_them() {
         .trip
         .model_spread_m_per_s
         .expect("a spread for geometry cooling");
-    assert_eq!(m.by_rule.len(), 3);
+    assert_eq!(m.by_rule.len(), 4);
     let own = m.by_rule["intercept-removed"].unwrap();
     assert!((own - r.trip.airflow_m_per_s.unwrap()).abs() < 1e-6 * own);
     assert!(m.min <= own && own <= m.max && m.max > m.min);
@@ -646,5 +646,66 @@ fn fin_supports_are_reported() {
     assert!(
         e.contains("element.cooling.supports") && e.contains("fin"),
         "{e}"
+    );
+}
+
+/// The effective-velocity rule and `flow` (issue 11): cross and assisting
+/// are taken with the rule, assisting cools more at the same airflow;
+/// `flow` with another rule, and opposing flow, are refused with the field
+/// named and the reason; every geometry report's model spread includes the
+/// rule.
+#[test]
+fn effective_velocity_and_flow_direction() {
+    use draftwire::design::overrides::Override;
+    let duct = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/duct-platinum-wire.toml"),
+    )
+    .unwrap();
+    let with = |sets: &[&str]| {
+        let o: Vec<Override> = sets.iter().map(|s| Override::parse(s).unwrap()).collect();
+        draftwire::design::parse_design_with("d.toml", &duct, &o)
+    };
+    let cross = with(&["element.cooling.mixing=effective-velocity"]).unwrap();
+    let up = with(&[
+        "element.cooling.mixing=effective-velocity",
+        "element.cooling.flow=assisting",
+    ])
+    .unwrap();
+    assert!(cross
+        .assumptions
+        .iter()
+        .any(|a| a.contains("element.cooling.flow not given: cross flow")));
+    let env = draftwire::element::Environment::at(293.15);
+    let loss = |d: &draftwire::design::model::Design| {
+        d.element.cooling_law().heat_loss_w(400.0, 0.05, &env)
+    };
+    assert!(loss(&up) > loss(&cross));
+    let e = with(&["element.cooling.flow=assisting"])
+        .unwrap_err()
+        .to_string();
+    assert!(
+        e.contains("element.cooling.flow") && e.contains("effective-velocity"),
+        "{e}"
+    );
+    let e = with(&[
+        "element.cooling.mixing=effective-velocity",
+        "element.cooling.flow=opposing",
+    ])
+    .unwrap_err()
+    .to_string();
+    assert!(
+        e.contains("element.cooling.flow") && e.contains("not modelled"),
+        "{e}"
+    );
+    let plain = draftwire::design::parse_design("d.toml", &duct).unwrap();
+    let spread = draftwire::analysis::size(&plain)
+        .unwrap()
+        .trip
+        .model_spread_m_per_s
+        .unwrap();
+    assert!(
+        spread.by_rule.contains_key("effective-velocity"),
+        "{:?}",
+        spread.by_rule
     );
 }

@@ -361,7 +361,7 @@ proptest! {
         i_factor in 0.2f64..1.0,
         u_level in 0.02f64..20.0,
         spill in -0.2f64..0.2,
-        rule in 0usize..3,
+        rule in 0usize..4,
     ) {
         let material = if tungsten { Material::Tungsten } else { Material::Platinum };
         let forced = if collis { ForcedCorrelation::CollisWilliams } else { ForcedCorrelation::ChurchillBernstein };

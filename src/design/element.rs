@@ -35,7 +35,9 @@ use crate::element::{
     CoolingLaw, DissipationLaw, Element, GeometryCooling, KingsLaw, LinearTcr, ResistanceLaw,
     ResistanceTable, ScaledSteinhartHart, Shape,
 };
-use crate::physics::convection::{ForcedCorrelation, MixingRule, NaturalCorrelation};
+use crate::physics::convection::{
+    FlowDirection, ForcedCorrelation, MixingRule, NaturalCorrelation,
+};
 use crate::physics::lamp::{coil_note, LampRating};
 use crate::physics::materials::Material;
 use crate::physics::platinum::CallendarVanDusen;
@@ -472,7 +474,7 @@ fn resistance_keys(r: &raw::RawResistance) -> [Key; 10] {
 }
 
 /// Every optional key of `[element.cooling]`.
-fn cooling_keys(c: &raw::RawCooling) -> [Key; 19] {
+fn cooling_keys(c: &raw::RawCooling) -> [Key; 20] {
     [
         ("a", at(&c.a)),
         ("b", at(&c.b)),
@@ -496,6 +498,7 @@ fn cooling_keys(c: &raw::RawCooling) -> [Key; 19] {
         ("mixing", at(&c.mixing)),
         ("mixing_exponent", at(&c.mixing_exponent)),
         ("still_air_floor", at(&c.still_air_floor)),
+        ("flow", at(&c.flow)),
     ]
 }
 
@@ -947,6 +950,7 @@ fn cooling_law_of(
                 "supports",
                 "mixing",
                 "mixing_exponent",
+                "flow",
             ];
             if law == "coil" {
                 takes.extend(["wire_diameter", "wire_length"]);
@@ -1128,9 +1132,39 @@ fn read_mixing(
         Some(w) => Some(rd.word(
             w,
             &f("mixing"),
-            &["intercept-removed", "churchill-usagi", "larger"],
+            &[
+                "intercept-removed",
+                "churchill-usagi",
+                "larger",
+                "effective-velocity",
+            ],
         )?),
         None => None,
+    };
+    let flow = match &c.flow {
+        Some(w) if w.get_ref().trim().eq_ignore_ascii_case("opposing") => {
+            return Err(rd.err(
+                Some(w.span()),
+                &f("flow"),
+                "opposing flow (air moving down past the wire, against its rising plume) is not modelled: the loss first falls, then rises with airflow, so one sense voltage would mean two airflows; mount the wire so the air crosses it or rises past it".into(),
+            ));
+        }
+        Some(w) => {
+            let dir = rd.word(w, &f("flow"), &["cross", "assisting"])?;
+            if word != Some("effective-velocity") {
+                return Err(rd.err(
+                    Some(w.span()),
+                    &f("flow"),
+                    "flow belongs to mixing = \"effective-velocity\": the other rules add the forced and natural terms with the + sign the sources give for both cross and assisting flow, so the direction does not change them".into(),
+                ));
+            }
+            if dir == "assisting" {
+                FlowDirection::Assisting
+            } else {
+                FlowDirection::Cross
+            }
+        }
+        None => FlowDirection::Cross,
     };
     if let (Some(v), false) = (&c.mixing_exponent, word == Some("churchill-usagi")) {
         return Err(rd.err(
@@ -1169,6 +1203,15 @@ fn read_mixing(
             MixingRule::ChurchillUsagi { exponent }
         }
         Some("larger") => MixingRule::Larger,
+        Some("effective-velocity") => {
+            if c.flow.is_none() {
+                rd.assumptions.push(format!(
+                    "{} not given: cross flow (the airflow crosses the horizontal wire)",
+                    f("flow")
+                ));
+            }
+            MixingRule::EffectiveVelocity { flow }
+        }
         _ => MixingRule::InterceptRemoved,
     })
 }

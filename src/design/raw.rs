@@ -262,6 +262,9 @@ pub struct RawCooling {
     pub mixing: Option<Word>,
     /// Geometry cooling: the Churchill–Usagi exponent.
     pub mixing_exponent: Option<Value>,
+    /// Geometry cooling, effective-velocity rule: the airflow's direction
+    /// relative to the buoyant flow.
+    pub flow: Option<Word>,
 }
 
 /// `[element.lamp]`.

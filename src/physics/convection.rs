@@ -344,14 +344,81 @@ pub enum MixingRule {
     /// The larger of the two terms, `max(Nu_F, Nu_N)`: each regime alone,
     /// with a dead band where the forced term is below the natural one.
     Larger,
+    /// An effective velocity: the buoyant flow taken as an airflow of its
+    /// own, added to the real one as a vector, and the forced correlation
+    /// evaluated at the sum, `Nu = Nu_F(Re_eff)`. The concept is Lemlich &
+    /// Hoke's (1956, as described by S. W. Churchill, Ind. Eng. Chem. Res.
+    /// 2014; reviewed for horizontal cylinders by Morgan 1975 §IV). Its
+    /// published equivalent Reynolds number of the buoyant flow could not
+    /// be read, so draftwire matches it to the natural correlation: Re_N is
+    /// where the forced correlation gives Nu_N (0 where Nu_N is below the
+    /// forced correlation's own still-air value), which makes still air
+    /// give Nu_N exactly. draftwire's construction, not a published one.
+    EffectiveVelocity {
+        /// How the airflow meets the buoyant flow.
+        flow: FlowDirection,
+    },
+}
+
+/// Direction of the airflow relative to the buoyant flow from the wire
+/// (upward), for the effective-velocity rule.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum FlowDirection {
+    /// Horizontal airflow across a horizontal wire: the two velocities are
+    /// perpendicular, `Re_eff = √(Re² + Re_N²)`.
+    Cross,
+    /// Upward airflow, along the buoyant flow: `Re_eff = Re + Re_N`.
+    Assisting,
+}
+
+impl FlowDirection {
+    /// The design-file name.
+    pub fn name(self) -> &'static str {
+        match self {
+            FlowDirection::Cross => "cross",
+            FlowDirection::Assisting => "assisting",
+        }
+    }
+    /// The effective Reynolds number of airflow `re` and buoyant flow
+    /// `re_n` (vector sum).
+    pub fn effective(self, re: f64, re_n: f64) -> f64 {
+        match self {
+            FlowDirection::Cross => re.hypot(re_n),
+            FlowDirection::Assisting => re + re_n,
+        }
+    }
+    /// The airflow's Reynolds number for an effective one (the sum
+    /// inverted); `None` below the buoyant flow alone.
+    pub fn airflow_reynolds(self, re_eff: f64, re_n: f64) -> Option<f64> {
+        let re = match self {
+            FlowDirection::Cross => {
+                let s = re_eff * re_eff - re_n * re_n;
+                if s.is_nan() || s < -1e-12 * re_eff * re_eff {
+                    return None;
+                }
+                s.max(0.0).sqrt()
+            }
+            FlowDirection::Assisting => {
+                let re = re_eff - re_n;
+                if re.is_nan() || re < -1e-12 * re_eff {
+                    return None;
+                }
+                re.max(0.0)
+            }
+        };
+        Some(re)
+    }
 }
 
 impl MixingRule {
     /// Every rule draftwire offers, Churchill–Usagi at its usual exponent 3.
-    pub const ALL: [MixingRule; 3] = [
+    pub const ALL: [MixingRule; 4] = [
         MixingRule::InterceptRemoved,
         MixingRule::ChurchillUsagi { exponent: 3.0 },
         MixingRule::Larger,
+        MixingRule::EffectiveVelocity {
+            flow: FlowDirection::Cross,
+        },
     ];
 
     /// The design-file name (`mixing = "…"`), draftwire's own names.
@@ -360,6 +427,7 @@ impl MixingRule {
             MixingRule::InterceptRemoved => "intercept-removed",
             MixingRule::ChurchillUsagi { .. } => "churchill-usagi",
             MixingRule::Larger => "larger",
+            MixingRule::EffectiveVelocity { .. } => "effective-velocity",
         }
     }
 
@@ -374,11 +442,21 @@ impl MixingRule {
                 crate::quantity::format_sig(exponent, 3)
             ),
             MixingRule::Larger => "the larger term (Nu = max(Nu_F, Nu_N))".to_string(),
+            MixingRule::EffectiveVelocity { flow } => format!(
+                "effective velocity, {} flow (Nu = Nu_F(Re_eff), Re_eff = {}, Re_N where Nu_F = Nu_N)",
+                flow.name(),
+                match flow {
+                    FlowDirection::Cross => "√(Re² + Re_N²)",
+                    FlowDirection::Assisting => "Re + Re_N",
+                }
+            ),
         }
     }
 
     /// The combined Nusselt number from the forced term at this Re, its
-    /// still-air intercept and the natural term.
+    /// still-air intercept and the natural term. The effective-velocity
+    /// rule needs the forced correlation itself, not three numbers:
+    /// [`CylinderInCrossFlow`] applies it, and here it gives NaN.
     pub fn combine(self, nu_forced: f64, nu_forced_still_air: f64, nu_natural: f64) -> f64 {
         match self {
             MixingRule::InterceptRemoved => {
@@ -388,6 +466,7 @@ impl MixingRule {
                 (nu_forced.powf(exponent) + nu_natural.powf(exponent)).powf(1.0 / exponent)
             }
             MixingRule::Larger => nu_forced.max(nu_natural),
+            MixingRule::EffectiveVelocity { .. } => f64::NAN,
         }
     }
 
@@ -416,6 +495,7 @@ impl MixingRule {
             }
             // Above the dead band the combined number is the forced term.
             MixingRule::Larger => nusselt.max(nu_forced_still_air),
+            MixingRule::EffectiveVelocity { .. } => return None,
         })
     }
 }
@@ -598,9 +678,15 @@ impl CylinderInCrossFlow {
         // Re < Gr^(1/3), compared as Re³ < Gr (both ≥ 0) to spare a cube root.
         warnings.free_convection_dominates = reynolds * reynolds * reynolds < grashof;
 
-        let nusselt = self
-            .mixing
-            .combine(nu_forced, nu_forced_still_air, nu_natural);
+        let nusselt = match self.mixing {
+            MixingRule::EffectiveVelocity { flow } => {
+                let re_n = self
+                    .forced_reynolds_for(nu_natural, film_k, ambient_k, prandtl)
+                    .unwrap_or(0.0);
+                self.forced_nusselt(flow.effective(reynolds, re_n), film_k, ambient_k, prandtl)
+            }
+            rule => rule.combine(nu_forced, nu_forced_still_air, nu_natural),
+        };
         let h = nusselt * air.thermal_conductivity_w_per_m_k / d;
         let conductance = h * self.surface_area_m2();
         Ok(ConvectionState {
@@ -619,6 +705,38 @@ impl CylinderInCrossFlow {
 }
 
 impl CylinderInCrossFlow {
+    /// The forced correlation alone at Reynolds number `re`.
+    fn forced_nusselt(&self, re: f64, film_k: f64, ambient_k: f64, prandtl: f64) -> f64 {
+        match self.forced {
+            ForcedCorrelation::CollisWilliams => {
+                collis_williams_loading(film_k, ambient_k) * collis_williams_branch(re)
+            }
+            ForcedCorrelation::ChurchillBernstein => nusselt_churchill_bernstein(re, prandtl),
+        }
+    }
+
+    /// The Reynolds number at which the forced correlation gives `nusselt`;
+    /// `None` below its still-air value.
+    fn forced_reynolds_for(
+        &self,
+        nusselt: f64,
+        film_k: f64,
+        ambient_k: f64,
+        prandtl: f64,
+    ) -> Option<f64> {
+        if nusselt.is_nan() || nusselt < self.forced_nusselt(0.0, film_k, ambient_k, prandtl) {
+            return None;
+        }
+        Some(match self.forced {
+            ForcedCorrelation::CollisWilliams => reynolds_for_collis_williams_branch(
+                nusselt / collis_williams_loading(film_k, ambient_k),
+            ),
+            ForcedCorrelation::ChurchillBernstein => {
+                reynolds_for_churchill_bernstein(nusselt, prandtl)
+            }
+        })
+    }
+
     /// The airflow (m/s, ≥ 0) at which the convective loss at surface
     /// temperature `surface_k` equals `convective_w`: [`Self::convection`]
     /// inverted. At a fixed temperature the film properties and the natural
@@ -651,6 +769,16 @@ impl CylinderInCrossFlow {
         let nusselt = convective_w * d
             / (air.thermal_conductivity_w_per_m_k * self.surface_area_m2() * delta_k);
         let nu_n = still.nusselt_natural;
+        if let MixingRule::EffectiveVelocity { flow } = self.mixing {
+            let pr = air.prandtl;
+            let re_n = self
+                .forced_reynolds_for(nu_n, film_k, ambient_k, pr)
+                .unwrap_or(0.0);
+            let re_eff = self.forced_reynolds_for(nusselt, film_k, ambient_k, pr)?;
+            let reynolds = flow.airflow_reynolds(re_eff, re_n)?;
+            let u = reynolds * air.kinematic_viscosity_m2_per_s / d;
+            return u.is_finite().then_some(u);
+        }
         let reynolds = match self.forced {
             ForcedCorrelation::CollisWilliams => {
                 let loading = collis_williams_loading(film_k, ambient_k);
@@ -967,6 +1095,80 @@ mod tests {
             free_convection_velocity_m_per_s(0.0, 293.15, STANDARD_PRESSURE_PA).unwrap(),
             0.0
         );
+    }
+
+    #[test]
+    fn effective_velocity_limits_and_inversion() {
+        // A 25 µm wire at 450 K in 20 °C air, both forced correlations.
+        for forced in [
+            ForcedCorrelation::CollisWilliams,
+            ForcedCorrelation::ChurchillBernstein,
+        ] {
+            for flow in [FlowDirection::Cross, FlowDirection::Assisting] {
+                let wire =
+                    CylinderInCrossFlow::new(25e-6, 0.03, forced, NaturalCorrelation::Morgan)
+                        .unwrap()
+                        .with_mixing(MixingRule::EffectiveVelocity { flow });
+                let at = |u: f64| {
+                    wire.convection(u, 450.0, 293.15, STANDARD_PRESSURE_PA)
+                        .unwrap()
+                };
+                // Still air gives the natural correlation exactly (Re_N is
+                // matched to it) when it is above the forced intercept.
+                let still = at(0.0);
+                if still.nusselt_natural >= still.nusselt_forced {
+                    assert!(
+                        rel(still.nusselt, still.nusselt_natural) < 1e-9,
+                        "{forced:?} {flow:?}"
+                    );
+                }
+                // Strictly rising, and the forced correlation far above Re_N.
+                let mut last = still.nusselt;
+                for u in [0.01, 0.05, 0.2, 1.0, 5.0, 20.0] {
+                    let s = at(u);
+                    assert!(s.nusselt > last, "{forced:?} {flow:?} at {u}");
+                    last = s.nusselt;
+                }
+                let fast = at(20.0);
+                assert!(
+                    rel(fast.nusselt, fast.nusselt_forced) < 0.05,
+                    "{forced:?} {flow:?}"
+                );
+                // The inversion returns the airflow.
+                for u in [0.0, 0.02, 0.3, 3.0] {
+                    let q = at(u).heat_loss_w;
+                    let back = wire
+                        .airflow_for_convective_loss(q, 450.0, 293.15, STANDARD_PRESSURE_PA)
+                        .unwrap();
+                    assert!(
+                        (back - u).abs() <= 1e-7 * u.max(1e-3),
+                        "{forced:?} {flow:?}: {u} -> {back}"
+                    );
+                }
+            }
+        }
+        // Assisting flow adds the two velocities in line: more loss than
+        // crossing them at the same airflow.
+        let with = |flow| {
+            CylinderInCrossFlow::new(
+                25e-6,
+                0.03,
+                ForcedCorrelation::CollisWilliams,
+                NaturalCorrelation::Morgan,
+            )
+            .unwrap()
+            .with_mixing(MixingRule::EffectiveVelocity { flow })
+            .convection(0.05, 450.0, 293.15, STANDARD_PRESSURE_PA)
+            .unwrap()
+            .nusselt
+        };
+        assert!(with(FlowDirection::Assisting) > with(FlowDirection::Cross));
+        // combine() cannot apply it from three numbers: NaN, never a value.
+        assert!(MixingRule::EffectiveVelocity {
+            flow: FlowDirection::Cross
+        }
+        .combine(0.5, 0.24, 0.4)
+        .is_nan());
     }
 
     #[test]
