@@ -350,6 +350,47 @@ pub fn operating_point_bounded(
     env: &Environment,
     u: f64,
 ) -> Option<Result<OperatingPoint, SolveError>> {
+    let (roots, known_slope) = match bounded_census(element, drive, env, u, false)? {
+        Ok(found) => found,
+        Err(e) => return Some(Err(e)),
+    };
+    let (t, _) = roots.iter().next()?;
+    // The first root's slope was taken when it was classified (a root at
+    // ambient itself was not: take it here).
+    let slope = known_slope.unwrap_or_else(|| residual_slope(element, drive, env, u, t));
+    Some(Ok(point_with_slope(
+        element, drive, env, u, t, roots, slope,
+    )))
+}
+
+/// The lowest root of the balance above ambient — the temperature an
+/// element warming from cold settles at — by the bounded census stopped at
+/// its first root (the walk goes left to right, so the first root it
+/// refines is the lowest). `Some(None)`: no root on the range (runaway);
+/// `None`: the census hands back (the caller solves in full).
+pub fn first_root_bounded(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+) -> Option<Option<f64>> {
+    match bounded_census(element, drive, env, u, true)? {
+        Ok((roots, _)) => Some(roots.iter().next().map(|(t, _)| t)),
+        Err(SolveError::Runaway { .. }) => Some(None),
+        Err(_) => None,
+    }
+}
+
+/// The bounded census's roots (at least one) and the first root's slope
+/// where it was taken on the way, or the runaway; with `first_only` the
+/// walk stops at the first root.
+fn bounded_census(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+    first_only: bool,
+) -> Option<Result<(RootSet, Option<f64>), SolveError>> {
     let law = element.resistance_law();
     let (lo, hi) = law.valid_range_k();
     let ta = env.ambient_k;
@@ -399,28 +440,22 @@ pub fn operating_point_bounded(
         roots: &mut roots,
         slope: &|t| residual_slope(element, drive, env, u, t),
         first_slope: None,
+        first_only,
     };
     // `None`: a non-finite value or a loss that fell with temperature; the
     // full scan decides (and reports).
     visit.interval(0, SCAN_INTERVALS + 1, first, last)?;
     let visit_first_slope = visit.first_slope;
-    let Some((t, _)) = roots.iter().next() else {
+    if roots.found() == 0 {
         // The full scan's figures, taken at the top of the range itself.
         return Some(Err(SolveError::Runaway {
             upper_k: hi,
             power_w: drive.power_w(law.resistance_ohm(hi)),
             loss_w: cooling.heat_loss_w(hi, u, env),
         }));
-    };
-    // The first root's slope was taken when it was classified (a root at
-    // ambient itself was not: take it here).
-    let slope = match visit_first_slope {
-        Some(s) if first.f != 0.0 => s,
-        _ => residual_slope(element, drive, env, u, t),
-    };
-    Some(Ok(point_with_slope(
-        element, drive, env, u, t, roots, slope,
-    )))
+    }
+    let known_slope = visit_first_slope.filter(|_| first.f != 0.0);
+    Some(Ok((roots, known_slope)))
 }
 
 /// The bounded census's walk over grid intervals, left to right so that
@@ -434,6 +469,8 @@ struct Visit<'a, E, F, S> {
     /// The residual's slope at the first root refined (kept for the
     /// operating point, so it is not computed twice).
     first_slope: Option<f64>,
+    /// Stop at the first root.
+    first_only: bool,
 }
 
 impl<E, F, S> Visit<'_, E, F, S>
@@ -443,6 +480,9 @@ where
     S: Fn(f64) -> f64,
 {
     fn interval(&mut self, i: usize, j: usize, a: GridPoint, b: GridPoint) -> Option<()> {
+        if self.first_only && self.roots.found() > 0 {
+            return Some(());
+        }
         if b.loss < a.loss {
             return None;
         }
@@ -663,10 +703,16 @@ pub fn airflow_by_inversion(
                 return Some(Ok(u));
             }
             // Otherwise trust it only if it is the operating point an
-            // element warming from cold settles at.
-            let p = operating_point(element, drive, env, u).ok()?;
+            // element warming from cold settles at: the balance's lowest
+            // root (the bounded census stopped at its first root, else the
+            // full solve).
+            let t_first = match first_root_bounded(element, drive, env, u) {
+                Some(first) => first?,
+                None => operating_point(element, drive, env, u).ok()?.temperature_k,
+            };
+            let sense_v = drive.sense_v(law.resistance_ohm(t_first));
             let tol = INVERSION_CHECK_REL * level_v.abs().max(f64::MIN_POSITIVE);
-            ((p.sense_v - level_v).abs() <= tol).then_some(Ok(u))
+            ((sense_v - level_v).abs() <= tol).then_some(Ok(u))
         }
         _ => {
             // Beyond one end: confirm with both ends that the level is not

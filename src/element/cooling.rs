@@ -458,13 +458,21 @@ impl GeometryCooling {
     /// resistance gives, exactly for a linear law) and the ends take
     /// `tanh(a)/a` of the power ([`end_loss_share`]): loss = lateral/(1 − share).
     fn loss_w(&self, t_k: f64, u: f64, env: &Environment) -> f64 {
-        let Some((lateral, share, _)) = self.lateral_and_share(t_k, u, env) else {
-            return f64::NAN;
-        };
         if self.fin_supports {
-            return lateral / (1.0 - share);
+            return self
+                .lateral_and_share(t_k, u, env)
+                .map_or(f64::NAN, |(lateral, share, _)| lateral / (1.0 - share));
         }
-        lateral + self.support_w_per_k * (t_k - env.ambient_k)
+        let conv = self
+            .convection(t_k, u, env)
+            .map_or(f64::NAN, |c| c.heat_loss_w);
+        let rad = radiative_loss_w(
+            self.cylinder.surface_area_m2(),
+            self.emissivity(t_k),
+            t_k,
+            env.ambient_k,
+        );
+        conv + rad + self.support_w_per_k * (t_k - env.ambient_k)
     }
 }
 
