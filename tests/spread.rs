@@ -212,3 +212,48 @@ fn spread_runs_on_every_example() {
         );
     }
 }
+
+/// A model tolerance on a geometry-cooled wire (issue 11: the tolerance
+/// spread can include the model): `[spread] cooling` scales the forced
+/// correlation, widens the trip airflow's spread, and shows up among the
+/// ranked contributions.
+#[test]
+fn geometry_cooling_takes_a_model_tolerance() {
+    let base = example("duct-platinum-wire.toml");
+    let with_model = format!("{base}\n[spread]\ncooling = \"10 %\"\n");
+    let run = |text: &str| {
+        let d = parse_design("d.toml", text).unwrap();
+        let d = draftwire::analysis::choice::resolve(&d).design;
+        let core = size_core(&d).unwrap();
+        spread(
+            &d,
+            &core,
+            SpreadOptions {
+                trials: 2000,
+                seed: 7,
+            },
+            &|_| {},
+            None,
+        )
+    };
+    let plain = run(&base);
+    let model = run(&with_model);
+    let width = |r: &draftwire::analysis::spread::SpreadReport| {
+        let q = &r.trip_airflow_quantiles_m_per_s;
+        q.p95.unwrap() - q.p05.unwrap()
+    };
+    assert!(
+        width(&model) > width(&plain),
+        "{} vs {}",
+        width(&model),
+        width(&plain)
+    );
+    assert!(
+        model
+            .contributions
+            .iter()
+            .any(|c| c.parameter.contains("cooling") && c.share > 0.0),
+        "{:?}",
+        model.contributions
+    );
+}

@@ -362,9 +362,7 @@ fn build_of(cx: &Context, z: &[f64; N]) -> Build {
         .element
         .with_resistance_law(core.element.resistance_law().scaled(f(0)));
     if cx.tol[6] > 0.0 {
-        if let Some(c) = element.cooling_law().with_airflow_term_scaled(f(6)) {
-            element = element.with_cooling_law(c);
-        }
+        element = element.with_cooling_law(element.cooling_law().with_airflow_term_scaled(f(6)));
     }
     let d = core.front.divider;
     Build {

@@ -80,7 +80,7 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         None => None,
     };
     let ratings = build_ratings(rd, raw.ratings.as_ref())?;
-    let spread = build_spread(rd, raw.spread.as_ref(), &element)?;
+    let spread = build_spread(rd, raw.spread.as_ref())?;
     let compensation =
         super::compensation::build_compensation(rd, raw.compensation.as_ref(), element_tolerance)?;
 
@@ -519,32 +519,13 @@ fn build_detector(
 
 /// `[spread]`: the tolerance run's settings; absent keys take
 /// [`SPREAD_DEFAULTS`] (the `spread` report echoes every setting).
-fn build_spread(
-    rd: &mut Reader<'_>,
-    g: Option<&raw::RawSpread>,
-    element: &crate::element::Element,
-) -> R<SpreadSpec> {
+fn build_spread(rd: &mut Reader<'_>, g: Option<&raw::RawSpread>) -> R<SpreadSpec> {
     let Some(g) = g else {
         return Ok(SPREAD_DEFAULTS);
     };
     let cooling_tolerance = match &g.cooling {
         None => 0.0,
-        Some(v) => {
-            let x = rd.fraction_in(v, "spread.cooling", 0.0, 0.5)?;
-            if x > 0.0
-                && element
-                    .cooling_law()
-                    .with_airflow_term_scaled(1.0)
-                    .is_none()
-            {
-                return Err(rd.err(
-                    Some(v.span()),
-                    "spread.cooling",
-                    "a cooling tolerance scales a fitted airflow term (King's law or the data-sheet form); this element's cooling comes from its geometry and a published correlation: leave spread.cooling out".into(),
-                ));
-            }
-            x
-        }
+        Some(v) => rd.fraction_in(v, "spread.cooling", 0.0, 0.5)?,
     };
     let distribution = match &g.distribution {
         None => SPREAD_DEFAULTS.distribution,

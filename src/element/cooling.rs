@@ -581,20 +581,24 @@ impl CoolingLaw {
 
     /// This law with its airflow term scaled by `factor` (a model
     /// tolerance on the cooling: King's `B`, the data-sheet form's flow
-    /// term); `None` for geometry cooling, whose forced term comes from a
-    /// published correlation rather than a fitted constant.
-    pub fn with_airflow_term_scaled(&self, factor: f64) -> Option<CoolingLaw> {
+    /// term, geometry cooling's forced correlation, intercept included).
+    pub fn with_airflow_term_scaled(&self, factor: f64) -> CoolingLaw {
         let scale = |k: &KingsLaw| KingsLaw {
             b_w_per_k: k.b_w_per_k * factor,
             ..*k
         };
         match self {
-            CoolingLaw::King(k) => Some(CoolingLaw::King(scale(k))),
-            CoolingLaw::Datasheet(d) => Some(CoolingLaw::Datasheet(DissipationLaw {
+            CoolingLaw::King(k) => CoolingLaw::King(scale(k)),
+            CoolingLaw::Datasheet(d) => CoolingLaw::Datasheet(DissipationLaw {
                 king: scale(&d.king),
                 ..*d
-            })),
-            CoolingLaw::Geometry(_) => None,
+            }),
+            CoolingLaw::Geometry(g) => CoolingLaw::Geometry(GeometryCooling {
+                cylinder: g
+                    .cylinder
+                    .with_forced_factor(g.cylinder.forced_factor() * factor),
+                ..*g
+            }),
         }
     }
 
@@ -622,17 +626,11 @@ impl CoolingLaw {
                 king: scale(&d.king),
                 ..*d
             })),
-            CoolingLaw::Geometry(g) => {
-                let c = &g.cylinder;
-                CylinderInCrossFlow::new(
-                    c.diameter_m(),
-                    c.length_m() * factor,
-                    c.forced(),
-                    c.natural(),
-                )
+            CoolingLaw::Geometry(g) => g
+                .cylinder
+                .with_length(g.cylinder.length_m() * factor)
                 .ok()
-                .map(|cylinder| CoolingLaw::Geometry(GeometryCooling { cylinder, ..*g }))
-            }
+                .map(|cylinder| CoolingLaw::Geometry(GeometryCooling { cylinder, ..*g })),
         }
     }
 
