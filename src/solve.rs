@@ -276,9 +276,21 @@ fn newton_single_root(
     if !closed {
         return None;
     }
+    // The conductance is known: the loss and the slope at the root need no
+    // further evaluation of the cooling law.
+    let s = slope(t);
     let mut roots = RootSet::empty();
-    roots.push(t, slope(t) > 0.0);
-    Some(point_at(element, drive, env, u, t, roots))
+    roots.push(t, s > 0.0);
+    Some(point_from(
+        element,
+        drive,
+        env,
+        u,
+        t,
+        roots,
+        s,
+        g * (t - ta),
+    ))
 }
 
 /// Solve the steady energy balance at airflow `airflow_m_per_s`.
@@ -603,6 +615,22 @@ fn point_with_slope(
     roots: RootSet,
     slope: f64,
 ) -> OperatingPoint {
+    let loss = element.cooling_law().heat_loss_w(t, u, env);
+    point_from(element, drive, env, u, t, roots, slope, loss)
+}
+
+/// [`point_with_slope`] with the heat loss at `t` already known as well.
+#[allow(clippy::too_many_arguments)]
+fn point_from(
+    element: &Element,
+    drive: &Drive,
+    env: &Environment,
+    u: f64,
+    t: f64,
+    roots: RootSet,
+    slope: f64,
+    heat_loss_w: f64,
+) -> OperatingPoint {
     let law = element.resistance_law();
     let r = law.resistance_ohm(t);
     OperatingPoint {
@@ -613,7 +641,7 @@ fn point_with_slope(
         ambient_resistance_ohm: law.resistance_ohm(env.ambient_k),
         current_a: drive.current_a(r),
         power_w: drive.power_w(r),
-        heat_loss_w: element.cooling_law().heat_loss_w(t, u, env),
+        heat_loss_w,
         sense_v: drive.sense_v(r),
         stability_w_per_k: slope,
         time_constant_s: if slope > 0.0 {
