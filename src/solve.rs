@@ -362,7 +362,9 @@ pub fn operating_point_bounded(
     env: &Environment,
     u: f64,
 ) -> Option<Result<OperatingPoint, SolveError>> {
-    let (roots, known_slope) = match bounded_census(element, drive, env, u, false)? {
+    let Census {
+        roots, known_slope, ..
+    } = match bounded_census(element, drive, env, u, false)? {
         Ok(found) => found,
         Err(e) => return Some(Err(e)),
     };
@@ -375,34 +377,48 @@ pub fn operating_point_bounded(
     )))
 }
 
-/// The lowest root of the balance above ambient — the temperature an
-/// element warming from cold settles at — by the bounded census stopped at
-/// its first root (the walk goes left to right, so the first root it
-/// refines is the lowest). `Some(None)`: no root on the range (runaway);
-/// `None`: the census hands back (the caller solves in full).
-pub fn first_root_bounded(
+/// The grid interval `[a, b]` (K) that holds the lowest root of the
+/// balance above ambient — where an element warming from cold settles — by
+/// the bounded census stopped at the first sign change, without refining
+/// it (the walk goes left to right, so the first interval it finds is the
+/// lowest; a root at ambient itself gives `[T_a, T_a]`). `Some(None)`: no
+/// root on the range (runaway); `None`: the census hands back (the caller
+/// solves in full).
+pub fn first_root_bracket(
     element: &Element,
     drive: &Drive,
     env: &Environment,
     u: f64,
-) -> Option<Option<f64>> {
+) -> Option<Option<(f64, f64)>> {
     match bounded_census(element, drive, env, u, true)? {
-        Ok((roots, _)) => Some(roots.iter().next().map(|(t, _)| t)),
+        Ok(c) => Some(
+            c.first_bracket
+                .or_else(|| c.roots.iter().next().map(|(t, _)| (t, t))),
+        ),
         Err(SolveError::Runaway { .. }) => Some(None),
         Err(_) => None,
     }
 }
 
-/// The bounded census's roots (at least one) and the first root's slope
-/// where it was taken on the way, or the runaway; with `first_only` the
-/// walk stops at the first root.
+/// What the bounded census found.
+struct Census {
+    /// The roots refined (none when stopped at a first bracket).
+    roots: RootSet,
+    /// The first root's slope, where it was taken on the way.
+    known_slope: Option<f64>,
+    /// With `first_only`: the first grid interval with a sign change.
+    first_bracket: Option<(f64, f64)>,
+}
+
+/// The bounded census's roots (at least one), or with `first_only` the
+/// first sign change's grid interval unrefined; or the runaway.
 fn bounded_census(
     element: &Element,
     drive: &Drive,
     env: &Environment,
     u: f64,
     first_only: bool,
-) -> Option<Result<(RootSet, Option<f64>), SolveError>> {
+) -> Option<Result<Census, SolveError>> {
     let law = element.resistance_law();
     let (lo, hi) = law.valid_range_k();
     let ta = env.ambient_k;
@@ -453,12 +469,14 @@ fn bounded_census(
         slope: &|t| residual_slope(element, drive, env, u, t),
         first_slope: None,
         first_only,
+        first_bracket: None,
     };
     // `None`: a non-finite value or a loss that fell with temperature; the
     // full scan decides (and reports).
     visit.interval(0, SCAN_INTERVALS + 1, first, last)?;
     let visit_first_slope = visit.first_slope;
-    if roots.found() == 0 {
+    let first_bracket = visit.first_bracket;
+    if roots.found() == 0 && first_bracket.is_none() {
         // The full scan's figures, taken at the top of the range itself.
         return Some(Err(SolveError::Runaway {
             upper_k: hi,
@@ -467,7 +485,11 @@ fn bounded_census(
         }));
     }
     let known_slope = visit_first_slope.filter(|_| first.f != 0.0);
-    Some(Ok((roots, known_slope)))
+    Some(Ok(Census {
+        roots,
+        known_slope,
+        first_bracket,
+    }))
 }
 
 /// The bounded census's walk over grid intervals, left to right so that
@@ -481,8 +503,10 @@ struct Visit<'a, E, F, S> {
     /// The residual's slope at the first root refined (kept for the
     /// operating point, so it is not computed twice).
     first_slope: Option<f64>,
-    /// Stop at the first root.
+    /// Stop at the first sign change, unrefined.
     first_only: bool,
+    /// The first sign change's grid interval (with `first_only`).
+    first_bracket: Option<(f64, f64)>,
 }
 
 impl<E, F, S> Visit<'_, E, F, S>
@@ -492,7 +516,7 @@ where
     S: Fn(f64) -> f64,
 {
     fn interval(&mut self, i: usize, j: usize, a: GridPoint, b: GridPoint) -> Option<()> {
-        if self.first_only && self.roots.found() > 0 {
+        if self.first_only && (self.roots.found() > 0 || self.first_bracket.is_some()) {
             return Some(());
         }
         if b.loss < a.loss {
@@ -501,6 +525,10 @@ where
         if j == i + 1 {
             // The full scan's test and refinement on one grid interval.
             if a.f != 0.0 && (b.f == 0.0 || b.f.signum() != a.f.signum()) {
+                if self.first_only {
+                    self.first_bracket = Some((a.t, b.t));
+                    return Some(());
+                }
                 let root = brent(self.f, a.t, b.t).ok()?;
                 let slope = (self.slope)(root.x);
                 self.first_slope.get_or_insert(slope);
@@ -731,16 +759,23 @@ pub fn airflow_by_inversion(
                 return Some(Ok(u));
             }
             // Otherwise trust it only if it is the operating point an
-            // element warming from cold settles at: the balance's lowest
-            // root (the bounded census stopped at its first root, else the
-            // full solve).
-            let t_first = match first_root_bounded(element, drive, env, u) {
-                Some(first) => first?,
-                None => operating_point(element, drive, env, u).ok()?.temperature_k,
-            };
-            let sense_v = drive.sense_v(law.resistance_ohm(t_first));
-            let tol = INVERSION_CHECK_REL * level_v.abs().max(f64::MIN_POSITIVE);
-            ((sense_v - level_v).abs() <= tol).then_some(Ok(u))
+            // element warming from cold settles at, the balance's lowest
+            // root: when the first grid interval with a sign change holds
+            // the temperature found (the full scan would refine its root
+            // there; the bounded census stops at that interval), else when
+            // the full solve's root reproduces the level.
+            match first_root_bracket(element, drive, env, u) {
+                Some(Some((a, b))) => {
+                    let slack = 1e-12 * b.abs();
+                    (t >= a - slack && t <= b + slack).then_some(Ok(u))
+                }
+                Some(None) => None,
+                None => {
+                    let p = operating_point(element, drive, env, u).ok()?;
+                    let tol = INVERSION_CHECK_REL * level_v.abs().max(f64::MIN_POSITIVE);
+                    ((p.sense_v - level_v).abs() <= tol).then_some(Ok(u))
+                }
+            }
         }
         _ => {
             // Beyond one end: confirm with both ends that the level is not
