@@ -228,8 +228,12 @@ fn newton_single_root(
     let f = |t: f64| g * (t - ta) - drive.power_w(law.resistance_ohm(t));
     let slope = |t: f64| g - drive.dpower_dr(law.resistance_ohm(t)) * law.derivative_ohm_per_k(t);
     let (mut lo, mut hi) = (ta, hi_k);
-    let (f_lo, f_hi) = (f(lo), f(hi));
-    if !(f_lo < 0.0 && f_hi > 0.0) {
+    // f(T_a) = −P < 0 for any drive that heats. The top of the range is not
+    // evaluated up front: where it holds no root, the steps run up to it
+    // and the closure test below refuses the end point (the census then
+    // reports the runaway).
+    let f_lo = f(lo);
+    if f_lo.is_nan() || f_lo >= 0.0 {
         return None;
     }
     // First guess: one Newton step from ambient.
