@@ -708,4 +708,15 @@ fn effective_velocity_and_flow_direction() {
         "{:?}",
         spread.by_rule
     );
+    // A design in assisting flow keeps both directions apart in the spread.
+    let spread = draftwire::analysis::size(&up)
+        .unwrap()
+        .trip
+        .model_spread_m_per_s
+        .unwrap();
+    assert!(spread.by_rule.contains_key("effective-velocity"));
+    assert!(spread
+        .by_rule
+        .contains_key("effective-velocity (assisting)"));
+    assert_eq!(spread.chosen, "effective-velocity (assisting)");
 }

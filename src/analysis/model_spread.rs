@@ -6,7 +6,7 @@
 
 use crate::analysis::size::SizedCore;
 use crate::design::Design;
-use crate::physics::convection::MixingRule;
+use crate::physics::convection::{FlowDirection, MixingRule};
 use crate::report::{ModelSpread, TripSummary};
 use crate::solve::airflow_for_sense;
 
@@ -26,6 +26,9 @@ fn key(rule: MixingRule) -> String {
             "churchill-usagi (m = {})",
             crate::quantity::format_sig(exponent, 3)
         ),
+        MixingRule::EffectiveVelocity {
+            flow: FlowDirection::Assisting,
+        } => "effective-velocity (assisting)".to_string(),
         r => r.name().to_string(),
     }
 }

@@ -25,7 +25,7 @@ use super::compensation::{Compensator, Reference, Sensing};
 use super::corners::{self, tripped_sign, Switching};
 use super::size::{drive_with, element_rail, trimmer_position, SizedCore};
 use crate::circuit::divider::Divider;
-use crate::circuit::frontend::FrontEnd;
+use crate::circuit::frontend::{Arrangement, FrontEnd};
 use crate::design::model::CompensationKind;
 use crate::design::model::{Design, Rail, SpreadDistribution, TripDirection};
 use crate::element::{Element, Environment};
@@ -288,16 +288,19 @@ struct Context<'a> {
     supply_ends: Vec<(f64, f64)>,
     /// The bench's supply condition: nominal input, regulator where it sits.
     bench_supply: (f64, f64),
-    /// Whether the target lies inside the band and clear of the quiet
-    /// airflow by more than the solver's tolerance, so that a build trimmed
-    /// onto it at the bench condition needs no solve there.
-    target_is_safe: bool,
+    /// Whether a build trimmed at the bench is sure to trip on target there
+    /// and the target is safe ([`bench_trip_is_target`]), so that the bench
+    /// condition needs no solve.
+    bench_trip_is_target: bool,
 }
 
 /// The supply ends a build's switching can depend on. The switching path
 /// sees the input only through the element's and the reference's rails: an
 /// end that neither rail follows gives the same trip as its neighbour and
-/// is solved once (an exact saving, not an approximation).
+/// is solved once (an exact saving, not an approximation). The comparator's
+/// output-high level is held at its nominal value here, as in the verdict's
+/// sites; a comparator on a rail the others do not share would move the
+/// released level with the input, which neither models.
 fn supply_ends(design: &Design, input_ends: &[f64], regulation_ends: &[f64]) -> Vec<(f64, f64)> {
     let has_regulator = design.supply.regulator.is_some();
     let rails = [element_rail(design), Some(design.detector.reference_rail)];
@@ -481,6 +484,23 @@ fn target_is_safe(design: &Design) -> bool {
         && in_band(design, &on_target)
 }
 
+/// Whether a build trimmed at the bench trips exactly on target at the bench
+/// condition, so the solve there can be skipped: the switching level must
+/// not depend on the sense node's source resistance (the bench trims with
+/// the build's own, the condition solves with the nominal one): the
+/// reference on the non-inverting input, or no feedback; the compensating
+/// part must not sit in the air stream (its level would follow the
+/// airflow); and the sense voltage must be strictly monotone in airflow
+/// (King's law or the data-sheet form, B > 0; a geometry law can have a
+/// dead band under `mixing = "larger"`).
+fn bench_trip_is_target(core: &SizedCore) -> bool {
+    let level_ignores_source = core.front.feedback_ohm.is_none()
+        || core.front.arrangement == Arrangement::ReferenceOnNonInverting;
+    level_ignores_source
+        && !core.compensation.in_air_stream()
+        && core.element.cooling_law().kings_form().is_some()
+}
+
 /// Whether a switching outcome trips at the quiet airflow.
 fn trips_when_quiet(design: &Design, s: &Switching) -> bool {
     match (design.detector.trip_on, s) {
@@ -526,9 +546,9 @@ fn trial(cx: &Context, index: u64, z: &[f64; N]) -> TrialRow {
         let dv = if at_bench_ambient { 0.0 } else { b.offset_v };
         for &(v, r) in &cx.supply_ends {
             // The bench condition itself: a build trimmed there trips on
-            // target, which `target_is_safe` has placed inside the band and
-            // clear of the quiet airflow.
-            if trimmable && cx.target_is_safe && at_bench_ambient && (v, r) == cx.bench_supply {
+            // target (see `bench_trip_is_target`).
+            if trimmable && cx.bench_trip_is_target && at_bench_ambient && (v, r) == cx.bench_supply
+            {
                 continue;
             }
             let (trip, _) = switching(cx, &b, t, (v, r), x, dv, false);
@@ -906,7 +926,7 @@ pub fn spread(
         ambient_ends,
         supply_ends: supply_ends(design, &input_ends, &regulation_ends),
         bench_supply: (design.supply.input_v, 1.0),
-        target_is_safe: target_is_safe(design),
+        bench_trip_is_target: target_is_safe(design) && bench_trip_is_target(core),
     };
     let chunks = opts.trials.div_ceil(CHUNK_TRIALS);
     let keep = rows.is_some();

@@ -131,9 +131,17 @@ fn natural_still_air_floor(
     let law = element.resistance_law();
     let rise = match overheat {
         Some(OverheatTarget::Rise(r)) => Some(r),
-        Some(OverheatTarget::Ratio(x)) => law
-            .temperature_for_resistance(law.resistance_ohm(ta) * (1.0 + x))
-            .map(|t| t - ta),
+        // R_hot = R_amb·(1 + x) for a metal, (1 − x) for an NTC, as the
+        // drive is sized (`analysis::size`).
+        Some(OverheatTarget::Ratio(x)) => {
+            let factor = if law.is_increasing() {
+                1.0 + x
+            } else {
+                1.0 - x
+            };
+            law.temperature_for_resistance(law.resistance_ohm(ta) * factor)
+                .map(|t| t - ta)
+        }
         None => None,
     };
     let Some(rise) = rise.filter(|r| r.is_finite() && *r > 0.0) else {

@@ -810,6 +810,11 @@ fn cooling(
 ) -> R<(CoolingLaw, Derived)> {
     let (law, derived) = cooling_law_of(rd, c, p, material)?;
     match still_air_floor_request(rd, c, p)? {
+        Some(FloorRequest::Natural) if p != "element" => Err(rd.err(
+            c.still_air_floor.as_ref().map(|v| v.span()),
+            &format!("{p}.cooling.still_air_floor"),
+            "\"natural\" is worked out from the design's drive for [element] only; give a candidate's floor as a velocity, e.g. still_air_floor = \"4 cm/s\"".into(),
+        )),
         Some(FloorRequest::Velocity(u)) => {
             let floored = law.with_still_air_floor(u).ok_or_else(|| {
                 rd.err(
