@@ -503,3 +503,27 @@ fn role_function(internal: &str) -> &'static str {
         .unwrap_or_else(|| panic!("no role {internal}"))
         .function()
 }
+
+/// `still_air_floor = "natural"` is worked out from the design's drive for
+/// `[element]` only: a candidate's is refused with its field named, and a
+/// candidate's floor given as a velocity is taken.
+#[test]
+fn a_candidate_floor_must_be_a_velocity() {
+    use draftwire::design::element::parse_candidates;
+    let design = parse_design("g.toml", &example("greenhouse-fan-alarm.toml")).unwrap();
+    let text = example("candidates/element-candidates.toml");
+    let natural = text.replacen("n = 0.45\n", "n = 0.45\nstill_air_floor = \"natural\"\n", 1);
+    assert_ne!(
+        natural, text,
+        "the candidates file has a King's-law candidate"
+    );
+    let err = parse_candidates("c.toml", &natural, &design)
+        .unwrap_err()
+        .to_string();
+    assert!(
+        err.contains("cooling.still_air_floor") && err.contains("[element] only"),
+        "{err}"
+    );
+    let given = text.replacen("n = 0.45\n", "n = 0.45\nstill_air_floor = \"4 cm/s\"\n", 1);
+    assert!(parse_candidates("c.toml", &given, &design).is_ok());
+}
