@@ -522,6 +522,22 @@ fn extrapolation_beyond_the_calibrated_range_is_measured() {
     );
 }
 
+/// A bundled example with `--set`-style overrides applied, parsed (the
+/// error as its message).
+fn example_with(name: &str, sets: &[&str]) -> Result<draftwire::design::model::Design, String> {
+    let text = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+            .join("examples")
+            .join(name),
+    )
+    .unwrap();
+    let o: Vec<draftwire::design::overrides::Override> = sets
+        .iter()
+        .map(|s| draftwire::design::overrides::Override::parse(s).unwrap())
+        .collect();
+    draftwire::design::parse_design_with(name, &text, &o).map_err(|e| e.to_string())
+}
+
 /// The still-air floor (issue 11): "natural" puts the free-convection
 /// velocity at the drive's still-air rise on King's law, states it, and
 /// moves the trip point only near still air; a velocity is taken as given;
@@ -529,14 +545,7 @@ fn extrapolation_beyond_the_calibrated_range_is_measured() {
 /// neither are refused with the field named.
 #[test]
 fn still_air_floor_is_stated_and_used() {
-    use draftwire::design::overrides::Override;
-    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
-        .join("examples/workshop-door-draught.toml");
-    let text = std::fs::read_to_string(path).unwrap();
-    let with = |o: &[&str]| {
-        let o: Vec<Override> = o.iter().map(|s| Override::parse(s).unwrap()).collect();
-        draftwire::design::parse_design_with("w.toml", &text, &o)
-    };
+    let with = |sets: &[&str]| example_with("workshop-door-draught.toml", sets);
     let bare = with(&[]).unwrap();
     let natural = with(&["element.cooling.still_air_floor=natural"]).unwrap();
     let given = with(&["element.cooling.still_air_floor=4 cm/s"]).unwrap();
@@ -585,7 +594,7 @@ fn still_air_floor_is_stated_and_used() {
     assert!((t_nat - t_bare).abs() < 1.0, "{t_nat} vs {t_bare}");
     assert!(i_nat > 1.01 * i_bare, "{i_nat} vs {i_bare}");
 
-    let err = |o: &[&str]| with(o).unwrap_err().to_string();
+    let err = |o: &[&str]| with(o).unwrap_err();
     let e = err(&["element.cooling.still_air_floor=bogus"]);
     assert!(
         e.contains("element.cooling.still_air_floor") && e.contains("natural"),
@@ -600,14 +609,11 @@ fn still_air_floor_is_stated_and_used() {
         e.contains("still_air_floor") || e.contains("overheat"),
         "{e}"
     );
-    let duct = std::fs::read_to_string(
-        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/duct-platinum-wire.toml"),
+    let e = example_with(
+        "duct-platinum-wire.toml",
+        &["element.cooling.still_air_floor=4 cm/s"],
     )
-    .unwrap();
-    let o = [Override::parse("element.cooling.still_air_floor=4 cm/s").unwrap()];
-    let e = draftwire::design::parse_design_with("d.toml", &duct, &o)
-        .unwrap_err()
-        .to_string();
+    .unwrap_err();
     assert!(e.contains("element.cooling.still_air_floor"), "{e}");
 }
 
@@ -617,11 +623,7 @@ fn still_air_floor_is_stated_and_used() {
 /// is tested in `element::cooling`).
 #[test]
 fn fin_supports_are_reported() {
-    use draftwire::design::overrides::Override;
-    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples");
-    let duct = std::fs::read_to_string(dir.join("duct-platinum-wire.toml")).unwrap();
-    let o = [Override::parse("element.cooling.supports=fin").unwrap()];
-    let d = draftwire::design::parse_design_with("d.toml", &duct, &o).unwrap();
+    let d = example_with("duct-platinum-wire.toml", &["element.cooling.supports=fin"]).unwrap();
     let r = draftwire::analysis::size(&d).unwrap();
     let s = r.trip.support_loss.expect("a support-loss line");
     assert!(s.share_still_air > s.share_at_trip && s.share_at_trip > 0.0);
@@ -632,17 +634,18 @@ fn fin_supports_are_reported() {
     };
     let l_mm = g.cylinder().length_m() * 1e3;
     assert!((s.share_at_trip - 2.0 * s.cold_length_at_trip_mm / l_mm).abs() < 0.01);
-    let plain = draftwire::design::parse_design("d.toml", &duct).unwrap();
+    let plain = example_with("duct-platinum-wire.toml", &[]).unwrap();
     assert!(draftwire::analysis::size(&plain)
         .unwrap()
         .trip
         .support_loss
         .is_none());
     // A bad value names the field and offers "fin".
-    let o = [Override::parse("element.cooling.supports=fins").unwrap()];
-    let e = draftwire::design::parse_design_with("d.toml", &duct, &o)
-        .unwrap_err()
-        .to_string();
+    let e = example_with(
+        "duct-platinum-wire.toml",
+        &["element.cooling.supports=fins"],
+    )
+    .unwrap_err();
     assert!(
         e.contains("element.cooling.supports") && e.contains("fin"),
         "{e}"
@@ -656,15 +659,7 @@ fn fin_supports_are_reported() {
 /// rule.
 #[test]
 fn effective_velocity_and_flow_direction() {
-    use draftwire::design::overrides::Override;
-    let duct = std::fs::read_to_string(
-        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("examples/duct-platinum-wire.toml"),
-    )
-    .unwrap();
-    let with = |sets: &[&str]| {
-        let o: Vec<Override> = sets.iter().map(|s| Override::parse(s).unwrap()).collect();
-        draftwire::design::parse_design_with("d.toml", &duct, &o)
-    };
+    let with = |sets: &[&str]| example_with("duct-platinum-wire.toml", sets);
     let cross = with(&["element.cooling.mixing=effective-velocity"]).unwrap();
     let up = with(&[
         "element.cooling.mixing=effective-velocity",
@@ -680,9 +675,7 @@ fn effective_velocity_and_flow_direction() {
         d.element.cooling_law().heat_loss_w(400.0, 0.05, &env)
     };
     assert!(loss(&up) > loss(&cross));
-    let e = with(&["element.cooling.flow=assisting"])
-        .unwrap_err()
-        .to_string();
+    let e = with(&["element.cooling.flow=assisting"]).unwrap_err();
     assert!(
         e.contains("element.cooling.flow") && e.contains("effective-velocity"),
         "{e}"
@@ -691,13 +684,12 @@ fn effective_velocity_and_flow_direction() {
         "element.cooling.mixing=effective-velocity",
         "element.cooling.flow=opposing",
     ])
-    .unwrap_err()
-    .to_string();
+    .unwrap_err();
     assert!(
         e.contains("element.cooling.flow") && e.contains("not modelled"),
         "{e}"
     );
-    let plain = draftwire::design::parse_design("d.toml", &duct).unwrap();
+    let plain = with(&[]).unwrap();
     let spread = draftwire::analysis::size(&plain)
         .unwrap()
         .trip

@@ -54,7 +54,8 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
     let has_reg = supply.regulator.is_some();
 
     // Element.
-    let (element, element_tolerance) = super::element::build_element(rd, &raw.element)?;
+    let (element, element_tolerance, natural_floor) =
+        super::element::build_element(rd, &raw.element)?;
 
     // Drive.
     let DriveChoice {
@@ -63,7 +64,11 @@ fn build(rd: &mut Reader<'_>, raw: &raw::RawDesign) -> R<Design> {
         tolerance: drive_tolerance,
     } = build_drive(rd, &raw.drive, "drive", has_reg, e_series)?;
 
-    let element = natural_still_air_floor(rd, &raw.element, element, overheat, &ambient)?;
+    let element = if natural_floor {
+        natural_still_air_floor(rd, &raw.element, element, overheat, &ambient)?
+    } else {
+        element
+    };
 
     let detector = build_detector(rd, &raw.detector, drive, has_reg, e_series)?;
     let reference_rail = detector.reference_rail;
@@ -117,16 +122,12 @@ fn natural_still_air_floor(
     overheat: Option<OverheatTarget>,
     ambient: &Ambient,
 ) -> R<Element> {
-    let Some(c) = e.cooling.as_ref() else {
-        return Ok(element);
-    };
-    if super::element::still_air_floor_request(rd, c, "element")?
-        != Some(super::element::FloorRequest::Natural)
-    {
-        return Ok(element);
-    }
+    let span = e
+        .cooling
+        .as_ref()
+        .and_then(|c| c.still_air_floor.as_ref())
+        .map(|v| v.span());
     let field = "element.cooling.still_air_floor";
-    let span = c.still_air_floor.as_ref().map(|v| v.span());
     let ta = ambient.nominal_k;
     let law = element.resistance_law();
     let rise = match overheat {

@@ -68,7 +68,10 @@ const DEFAULT_DATASHEET_N: f64 = 0.5;
 /// file does not say: 20 °C room temperature (common practice, no source).
 const DEFAULT_COLD_TEMPERATURE_K: f64 = 293.15;
 
-pub(crate) fn build_element(rd: &mut Reader<'_>, e: &raw::RawElement) -> R<(Element, f64)> {
+/// `[element]`: the element, its tolerance, and whether its cooling asks
+/// for the still-air floor `"natural"` (worked out once the drive is known,
+/// `design::build`).
+pub(crate) fn build_element(rd: &mut Reader<'_>, e: &raw::RawElement) -> R<(Element, f64, bool)> {
     if let Some(l) = &e.label {
         return Err(rd.err(
             Some(l.span()),
@@ -223,7 +226,7 @@ pub fn parse_candidates(
                 )))
             }
         };
-        let (element, tolerance) = build_element_at(&mut rd, c, &prefix)?;
+        let (element, tolerance, _) = build_element_at(&mut rd, c, &prefix)?;
         let drive = candidate_drive(&mut rd, c, &prefix, design)?;
         out.push(Candidate {
             label,
@@ -249,7 +252,7 @@ fn material_of(rd: &Reader<'_>, e: &raw::RawElement, p: &str) -> R<Option<Materi
     }
 }
 
-fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Element, f64)> {
+fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Element, f64, bool)> {
     let mut material = material_of(rd, e, p)?;
     let mut notes: Vec<String> = Vec::new();
     let mut plausibility: Vec<String> = Vec::new();
@@ -321,10 +324,12 @@ fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Ele
             _ => None,
         };
     }
+    let mut natural_floor = false;
     let cooling =
         match (&e.cooling, lamp_cooling) {
             (Some(c), _) => {
-                let (law, c_derived) = cooling(rd, c, p, material)?;
+                let (law, c_derived, natural) = cooling(rd, c, p, material)?;
+                natural_floor = natural;
                 if c_derived.is_some() {
                     derived_c = c_derived;
                 }
@@ -435,7 +440,7 @@ fn build_element_at(rd: &mut Reader<'_>, e: &raw::RawElement, p: &str) -> R<(Ele
             element.with_calibrated_range(lo, hi)
         }
     };
-    Ok((element, tolerance))
+    Ok((element, tolerance, natural_floor))
 }
 
 fn req<'v>(
@@ -767,7 +772,7 @@ type Derived = Option<(f64, String)>;
 
 /// What `still_air_floor` asks for.
 #[derive(Debug, Clone, Copy, PartialEq)]
-pub(crate) enum FloorRequest {
+enum FloorRequest {
     /// Given as a velocity, m/s (applied here).
     Velocity(f64),
     /// "natural": computed from the drive's overheat once it is known.
@@ -776,7 +781,7 @@ pub(crate) enum FloorRequest {
 
 /// The still-air floor asked for, if any: "none" (the default), "natural"
 /// or a velocity within its per-key range.
-pub(crate) fn still_air_floor_request(
+fn still_air_floor_request(
     rd: &mut Reader<'_>,
     c: &raw::RawCooling,
     p: &str,
@@ -807,7 +812,7 @@ fn cooling(
     c: &raw::RawCooling,
     p: &str,
     material: Option<Material>,
-) -> R<(CoolingLaw, Derived)> {
+) -> R<(CoolingLaw, Derived, bool)> {
     let (law, derived) = cooling_law_of(rd, c, p, material)?;
     match still_air_floor_request(rd, c, p)? {
         Some(FloorRequest::Natural) if p != "element" => Err(rd.err(
@@ -823,9 +828,10 @@ fn cooling(
                     "only King's law and the data-sheet form take a still-air floor; geometry cooling has its own natural-convection term".into(),
                 )
             })?;
-            Ok((floored, derived))
+            Ok((floored, derived, false))
         }
-        _ => Ok((law, derived)),
+        Some(FloorRequest::Natural) => Ok((law, derived, true)),
+        None => Ok((law, derived, false)),
     }
 }
 

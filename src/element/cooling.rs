@@ -291,8 +291,7 @@ pub struct GeometryCooling {
 /// take tanh(a)/a of q'·L. `h` is the lateral heat-transfer coefficient
 /// (convection and linearised radiation), W/(m²·K).
 pub fn end_loss_share(h_w_per_m2_k: f64, k_wire_w_per_m_k: f64, d_m: f64, l_m: f64) -> f64 {
-    let cold_length = (k_wire_w_per_m_k * d_m / (4.0 * h_w_per_m2_k)).sqrt();
-    let a = 0.5 * l_m / cold_length;
+    let a = 0.5 * l_m / cold_length_m(h_w_per_m2_k, k_wire_w_per_m_k, d_m);
     if a < 1e-4 {
         // tanh(a)/a = 1 − a²/3 + … : all the heat goes to the ends.
         return 1.0 - a * a / 3.0;
@@ -371,6 +370,15 @@ impl GeometryCooling {
             ..self
         })
     }
+    /// The fin model's wire constants: conductivity (W/(m·K)), diameter and
+    /// length (m).
+    fn fin_constants(&self) -> (f64, f64, f64) {
+        (
+            self.material.thermal_conductivity_w_per_m_k(),
+            self.cylinder.diameter_m(),
+            self.cylinder.length_m(),
+        )
+    }
     /// Whether the supports follow the fin model.
     pub fn fin_supports(&self) -> bool {
         self.fin_supports
@@ -395,11 +403,7 @@ impl GeometryCooling {
             return Some((lateral, 0.0, f64::INFINITY));
         }
         let h = lateral / (rise * self.cylinder.surface_area_m2());
-        let (k, d, l) = (
-            self.material.thermal_conductivity_w_per_m_k(),
-            self.cylinder.diameter_m(),
-            self.cylinder.length_m(),
-        );
+        let (k, d, l) = self.fin_constants();
         Some((lateral, end_loss_share(h, k, d, l), cold_length_m(h, k, d)))
     }
     /// With the fin model: the supports' share of the loss and the cold
@@ -512,11 +516,7 @@ impl GeometryCooling {
     ) -> Option<f64> {
         let rise = t_k - env.ambient_k;
         let area = self.cylinder.surface_area_m2();
-        let (k, d, l) = (
-            self.material.thermal_conductivity_w_per_m_k(),
-            self.cylinder.diameter_m(),
-            self.cylinder.length_m(),
-        );
+        let (k, d, l) = self.fin_constants();
         let total = |conv: f64| {
             let lateral = conv + rad;
             if lateral <= 0.0 {
