@@ -66,10 +66,43 @@ pub fn brent_with<F: FnMut(f64) -> f64>(
     abs_tol: f64,
     max_evaluations: usize,
 ) -> Result<Root, RootError> {
-    let (mut a, mut b) = (a0, b0);
-    let mut fa = f(a);
-    let mut fb = f(b);
-    let mut evaluations = 2;
+    let fa = f(a0);
+    let fb = f(b0);
+    brent_from(f, (a0, fa), (b0, fb), rel_tol, abs_tol, max_evaluations, 2)
+}
+
+/// Brent's method to the crate's precision policy from a bracket whose end
+/// values are already known (a scan that found the sign change has them):
+/// the same steps, root and evaluation count as [`brent`] on `f`, bit for
+/// bit (the count includes the two ends, as there), without evaluating the
+/// ends again.
+pub fn brent_known_ends<F: FnMut(f64) -> f64>(
+    f: F,
+    (a, fa): (f64, f64),
+    (b, fb): (f64, f64),
+) -> Result<Root, RootError> {
+    brent_from(
+        f,
+        (a, fa),
+        (b, fb),
+        ROOT_REL_TOL,
+        ROOT_ABS_TOL,
+        BRENT_MAX_EVALUATIONS,
+        2,
+    )
+}
+
+/// Brent's iteration from two ends and their values; `evaluations` counts
+/// those already spent on the ends (towards `max_evaluations`).
+fn brent_from<F: FnMut(f64) -> f64>(
+    mut f: F,
+    (mut a, mut fa): (f64, f64),
+    (mut b, mut fb): (f64, f64),
+    rel_tol: f64,
+    abs_tol: f64,
+    max_evaluations: usize,
+    mut evaluations: usize,
+) -> Result<Root, RootError> {
     if !fa.is_finite() {
         return Err(RootError::NotFinite { x: a });
     }

@@ -15,7 +15,7 @@
 use crate::drive::Drive;
 use crate::element::{CoolingLaw, Element, Environment};
 use crate::precision::{ENERGY_BALANCE_REL_TOL, ROOT_ABS_TOL, ROOT_REL_TOL, SCAN_INTERVALS};
-use crate::roots::{brent, brent_fallible, RootError};
+use crate::roots::{brent_fallible, brent_known_ends, RootError};
 
 /// Most roots a solve records (a physical element has at most three).
 pub const MAX_ROOTS: usize = 4;
@@ -533,7 +533,7 @@ where
                     self.first_bracket = Some((a.t, b.t));
                     return Some(());
                 }
-                let root = brent(self.f, a.t, b.t).ok()?;
+                let root = brent_known_ends(self.f, (a.t, a.f), (b.t, b.f)).ok()?;
                 let slope = (self.slope)(root.x);
                 self.first_slope.get_or_insert(slope);
                 self.roots.push(root.x, slope > 0.0);
@@ -604,7 +604,8 @@ pub fn operating_point_census(
             return Err(SolveError::Numerical(RootError::NotFinite { x: t }));
         }
         if f_prev != 0.0 && (ft == 0.0 || ft.signum() != f_prev.signum()) {
-            let root = brent(f, t_prev, t).map_err(SolveError::Numerical)?;
+            let root =
+                brent_known_ends(f, (t_prev, f_prev), (t, ft)).map_err(SolveError::Numerical)?;
             let stable = residual_slope(element, drive, env, u, root.x) > 0.0;
             roots.push(root.x, stable);
             if first.is_none() {

@@ -164,12 +164,16 @@ impl LjTable {
     /// first and last intervals lack a neighbour for the slopes).
     fn at(&self, t_k: f64) -> Option<LjParts> {
         let x = (t_k - LJ_TABLE_RANGE_K.0) / LJ_TABLE_STEP_K;
-        let i = x.floor();
-        if !(i >= 1.0 && (i as usize) + 2 < self.parts.len()) {
+        if x.is_nan() || x < 1.0 {
             return None;
         }
-        let k = i as usize;
-        let s = x - i;
+        // x ≥ 1: truncation is the floor (`floor` is a library call on the
+        // baseline target).
+        let k = x as usize;
+        if k + 2 >= self.parts.len() {
+            return None;
+        }
+        let s = x - k as f64;
         // Catmull–Rom weights of p[k−1], p[k], p[k+1], p[k+2].
         let s2 = s * s;
         let s3 = s2 * s;
@@ -308,7 +312,11 @@ fn specific_heat_j_per_kg_k(temperature_k: f64) -> f64 {
     // First node at or above T: directly on the 50 K steps the table keeps
     // up to 1000 K (index 18), by binary search above.
     let i = if temperature_k < 1000.0 {
-        (((temperature_k - 100.0) / 50.0).ceil() as usize).max(1)
+        // The ceiling of a positive step count, by truncation (`ceil` is a
+        // library call on the baseline target).
+        let steps = (temperature_k - 100.0) / 50.0;
+        let whole = steps as usize;
+        (whole + usize::from((whole as f64) < steps)).max(1)
     } else {
         CP_TABLE_A4.partition_point(|&(t, _)| t < temperature_k)
     };

@@ -11,6 +11,7 @@
 //! β = 1/T_f (ideal gas) and g = g₀.
 
 use super::air::{air_properties, AirError, STANDARD_GRAVITY_M_PER_S2};
+use super::cube_root::cbrt;
 use std::f64::consts::PI;
 
 /// Published correlation used for forced convection.
@@ -162,10 +163,9 @@ pub fn free_convection_velocity_m_per_s(
 ) -> Result<f64, ConvectionError> {
     let film_k = ambient_k + 0.5 * rise_k;
     let air = air_properties(film_k, pressure_pa)?;
-    Ok(
-        (STANDARD_GRAVITY_M_PER_S2 * rise_k.max(0.0) / film_k * air.kinematic_viscosity_m2_per_s)
-            .cbrt(),
-    )
+    Ok(cbrt(
+        STANDARD_GRAVITY_M_PER_S2 * rise_k.max(0.0) / film_k * air.kinematic_viscosity_m2_per_s,
+    ))
 }
 
 /// Churchill & Bernstein, J. Heat Transfer 99 (1977) 300–306:
@@ -180,8 +180,8 @@ pub fn nusselt_churchill_bernstein(reynolds: f64, prandtl: f64) -> f64 {
     // Powers by roots where the exponent allows (fewer `pow` calls, the
     // same values to rounding): x^(2/3) = (∛x)², y^(1/4) = √√y,
     // z^(5/8) = (z^(1/8))⁵ with z^(1/8) = √√√z.
-    let c = (0.4 / prandtl).cbrt();
-    let laminar = 0.62 * reynolds.sqrt() * prandtl.cbrt() / (1.0 + c * c).sqrt().sqrt();
+    let c = cbrt(0.4 / prandtl);
+    let laminar = 0.62 * reynolds.sqrt() * cbrt(prandtl) / (1.0 + c * c).sqrt().sqrt();
     let z8 = (reynolds / 282_000.0).sqrt().sqrt().sqrt();
     let z58 = z8 * z8 * z8 * z8 * z8;
     0.3 + laminar * (1.0 + z58).powf(0.8)
@@ -199,7 +199,7 @@ pub fn nusselt_churchill_chu_cylinder(rayleigh: f64, prandtl: f64) -> f64 {
     let s1 = x.sqrt();
     let s16 = s1.sqrt().sqrt().sqrt();
     let prandtl_factor = (1.0 + s1 * s16).powf(8.0 / 27.0);
-    let root = 0.60 + 0.387 * rayleigh.cbrt().sqrt() / prandtl_factor;
+    let root = 0.60 + 0.387 * cbrt(rayleigh).sqrt() / prandtl_factor;
     root * root
 }
 
@@ -251,7 +251,7 @@ pub fn reynolds_for_churchill_bernstein(nusselt: f64, prandtl: f64) -> f64 {
     if nusselt <= 0.3 {
         return 0.0;
     }
-    let c = 0.62 * prandtl.cbrt() / (1.0 + (0.4 / prandtl).powf(2.0 / 3.0)).powf(0.25);
+    let c = 0.62 * cbrt(prandtl) / (1.0 + (0.4 / prandtl).powf(2.0 / 3.0)).powf(0.25);
     let y = (nusselt - 0.3) / c;
     // In s = √Re: g(s) = s·(1 + (s²/282000)^⅝)^⅘ − y.
     let mut s = y;

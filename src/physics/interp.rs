@@ -12,6 +12,10 @@
 
 use crate::roots::{brent, RootError};
 
+/// Tables up to this many nodes find their interval by a branch-free count
+/// instead of a binary search (the same index; faster on short tables).
+const SHORT_TABLE: usize = 32;
+
 /// Why a table could not be built or evaluated.
 #[derive(Debug, Clone, Copy, PartialEq, thiserror::Error)]
 pub enum TableError {
@@ -201,7 +205,15 @@ impl MonotoneTable {
 
     /// Index k of the interval [x_k, x_{k+1}] holding `x` (x within range).
     fn interval(&self, x: f64) -> usize {
-        let upper = self.xs.partition_point(|&v| v <= x);
+        // The count of nodes at or below x, which is what a binary search
+        // (`partition_point`) returns on sorted nodes; for the short tables
+        // here a branch-free count is faster than the search's
+        // unpredictable branches.
+        let upper = if self.xs.len() <= SHORT_TABLE {
+            self.xs.iter().map(|&v| usize::from(v <= x)).sum()
+        } else {
+            self.xs.partition_point(|&v| v <= x)
+        };
         upper.saturating_sub(1).min(self.xs.len() - 2)
     }
 

@@ -3,6 +3,7 @@
 
 pub mod air;
 pub mod convection;
+pub mod cube_root;
 pub mod interp;
 pub mod lamp;
 pub mod materials;
