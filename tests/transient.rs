@@ -582,3 +582,44 @@ fn role_function(internal: &str) -> &'static str {
         .unwrap_or_else(|| panic!("no role {internal}"))
         .function()
 }
+
+/// The hold-off rule as documented (CLI reference: twice the smallest
+/// capacitor that removes the false alarm, then the next E6 value up),
+/// checked by its definition rather than by the search: on the workshop
+/// example the chosen value C removes the power-on false alarm at C/2 at
+/// both the nominal and the coldest ambient, on its chosen side, and the
+/// E6 value below C does not (at C_below/2 one of them still alarms beyond
+/// the grace). Values are the tool's own rule; no external source.
+#[test]
+fn hold_off_is_the_smallest_e6_value_twice_the_threshold() {
+    use draftwire::analysis::transient::{choose_hold_off, HoldOffChoice, HOLD_OFF_MARGIN};
+    use draftwire::eseries::ESeries;
+    use draftwire::transient::HoldOff;
+    let d = parse_design("w.toml", &example("workshop-door-draught.toml")).unwrap();
+    let core = draftwire::analysis::size::size_core(&d).unwrap();
+    let HoldOffChoice::Fitted(h) = choose_hold_off(&d, &core) else {
+        panic!("the workshop example needs a hold-off");
+    };
+    let grace = d.detector.power_on_grace_s;
+    let worst = |c: f64| {
+        let at = Some(HoldOff {
+            capacitance_f: c,
+            to_rail: h.to_rail,
+        });
+        [d.ambient.nominal_k, d.ambient.min_k]
+            .iter()
+            .map(|&t| power_on(&d, &core, t, at).false_alarm_s)
+            .fold(0.0, f64::max)
+    };
+    let c = h.capacitance_f;
+    assert_eq!(ESeries::E6.at_or_above(c), c, "{c} F is an E6 value");
+    assert!(
+        worst(c / HOLD_OFF_MARGIN) <= grace,
+        "{c} F / 2 must remove it"
+    );
+    let below = ESeries::E6.at_or_below(c * (1.0 - 1e-9));
+    assert!(
+        worst(below / HOLD_OFF_MARGIN) > grace,
+        "{below} F / 2 still removes it: {c} F is not the smallest"
+    );
+}

@@ -16,9 +16,6 @@ pub const HOLD_OFF_MARGIN: f64 = 2.0;
 /// Range the hold-off search covers, F.
 const HOLD_OFF_RANGE_F: (f64, f64) = (1e-9, 1e-2);
 
-/// Steps of the hold-off search (log bisection).
-const HOLD_OFF_STEPS: usize = 30;
-
 /// The airflow at which the output must stay idle: the background airflow
 /// for a rising trip, the normal airflow for a falling one.
 pub fn quiet_airflow(design: &Design) -> f64 {
@@ -163,44 +160,106 @@ pub fn choose_hold_off(design: &Design, core: &SizedCore) -> HoldOffChoice {
     if worst_false_alarm(design, core, None) <= grace {
         return HoldOffChoice::NotNeeded;
     }
-    let mut best: Option<f64> = None;
-    let mut side = true;
-    for to_rail in [true, false] {
-        let ok = |c: f64| {
-            worst_false_alarm(
-                design,
-                core,
-                Some(HoldOff {
-                    capacitance_f: c,
-                    to_rail,
-                }),
-            ) <= grace
-        };
-        let (lo, hi) = HOLD_OFF_RANGE_F;
-        if !ok(hi) {
-            continue;
+    // The answer is the smallest E6 value v ≥ margin·c*, c* the smallest
+    // capacitor that removes the false alarm (a larger one holds the output
+    // idle longer). Since v ≥ margin·c* exactly when a capacitor of
+    // v/margin removes it, a binary search over the E6 ladder finds v in
+    // about six power-on pairs a side, where bisecting c* itself took 30.
+    let (lo, hi) = HOLD_OFF_RANGE_F;
+    let ladder: Vec<f64> = ESeries::E6
+        .values_between(
+            HOLD_OFF_MARGIN * lo,
+            ESeries::E6.at_or_above(HOLD_OFF_MARGIN * hi),
+        )
+        .collect();
+    let removes = |c: f64, to_rail: bool| {
+        worst_false_alarm(
+            design,
+            core,
+            Some(HoldOff {
+                capacitance_f: c,
+                to_rail,
+            }),
+        ) <= grace
+    };
+    // Per side (rail first): the ladder index of its value, or none when
+    // even the top of the range does not remove the false alarm.
+    let pick = |to_rail: bool| -> Option<usize> {
+        if !removes(hi, to_rail) {
+            return None;
         }
-        let (mut a, mut b) = (lo.ln(), hi.ln());
-        for _ in 0..HOLD_OFF_STEPS {
-            let m = 0.5 * (a + b);
-            if ok(m.exp()) {
+        // The top rung removes it (it is above `hi`); find the first that
+        // does. Rungs below `a` are not known to fail: `a` starts one below
+        // the ladder, so the bottom rung (a tiny capacitor, a stiff run) is
+        // tried only when the search narrows to it.
+        let (mut a, mut b) = (-1_isize, ladder.len() as isize - 1);
+        while b - a > 1 {
+            let m = (a + b) / 2;
+            if removes(ladder[m as usize] / HOLD_OFF_MARGIN, to_rail) {
                 b = m;
             } else {
                 a = m;
             }
         }
-        if best.is_none_or(|x| b.exp() < x) {
-            best = Some(b.exp());
-            side = to_rail;
+        Some(b as usize)
+    };
+    let (rail, ground) = (pick(true), pick(false));
+    let to_rail = match (rail, ground) {
+        (None, None) => return HoldOffChoice::Impossible,
+        (Some(_), None) => true,
+        (None, Some(_)) => false,
+        (Some(r), Some(g)) if r != g => r < g,
+        // The same value either side: the side whose own smallest capacitor
+        // is smaller, i.e. the one with the more margin (rail on a tie).
+        (Some(i), Some(_)) => {
+            let floor = if i == 0 {
+                lo
+            } else {
+                ladder[i - 1] / HOLD_OFF_MARGIN
+            };
+            rail_needs_no_more(floor, ladder[i] / HOLD_OFF_MARGIN, |c, side| {
+                removes(c, side)
+            })
         }
-    }
-    match best {
+    };
+    let index = if to_rail { rail } else { ground };
+    match index {
         None => HoldOffChoice::Impossible,
-        Some(c) => HoldOffChoice::Fitted(HoldOff {
-            capacitance_f: ESeries::E6.at_or_above(HOLD_OFF_MARGIN * c),
-            to_rail: side,
+        Some(i) => HoldOffChoice::Fitted(HoldOff {
+            capacitance_f: ladder[i],
+            to_rail,
         }),
     }
+}
+
+/// Relative width at which two sides' smallest hold-off capacitors count as
+/// equal (the search stops; draftwire's choice, no source).
+const HOLD_OFF_TIE_REL: f64 = 1e-6;
+
+/// Whether the rail side's smallest capacitor that removes the false alarm
+/// is no larger than the ground side's, both known to lie in (`lo`, `hi`]:
+/// both thresholds are bisected together (log scale) until their brackets
+/// part, or are narrower than [`HOLD_OFF_TIE_REL`] (a tie: rail).
+fn rail_needs_no_more(lo: f64, hi: f64, removes: impl Fn(f64, bool) -> bool) -> bool {
+    let mut rail = (lo.ln(), hi.ln());
+    let mut ground = rail;
+    while rail.1 - rail.0 > HOLD_OFF_TIE_REL || ground.1 - ground.0 > HOLD_OFF_TIE_REL {
+        if rail.1 <= ground.0 {
+            return true;
+        }
+        if ground.1 <= rail.0 {
+            return false;
+        }
+        for (bracket, to_rail) in [(&mut rail, true), (&mut ground, false)] {
+            let m = 0.5 * (bracket.0 + bracket.1);
+            if removes(m.exp(), to_rail) {
+                bracket.1 = m;
+            } else {
+                bracket.0 = m;
+            }
+        }
+    }
+    rail.1 <= ground.1
 }
 
 /// The event table's times for a step from the quiet airflow to `to` and
